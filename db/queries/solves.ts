@@ -1,0 +1,228 @@
+import 'server-only';
+import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { getDb } from '../client';
+import { sectionRevisions, sections, solves, users, type SolveRow, type SolveStatus } from '../schema';
+import { insertAuditEvent } from './audit';
+
+/** A solve without its field blob. */
+export interface SolveView {
+  id: string;
+  workspaceId: string;
+  sectionId: string;
+  sectionName: string;
+  revisionId: string;
+  revisionNumber: number;
+  settings: unknown;
+  settingsHash: string;
+  result: unknown;
+  status: SolveStatus;
+  hasField: boolean;
+  fieldBytes: number | null;
+  author: { id: string; name: string } | null;
+  createdAt: Date;
+  updatedAt: Date;
+}
+
+const viewColumns = {
+  id: solves.id,
+  workspaceId: solves.workspaceId,
+  sectionId: solves.sectionId,
+  sectionName: sections.name,
+  revisionId: solves.revisionId,
+  revisionNumber: sectionRevisions.number,
+  settings: solves.settings,
+  settingsHash: solves.settingsHash,
+  result: solves.result,
+  status: solves.status,
+  fieldBytes: solves.fieldBytes,
+  hasField: sql<boolean>`(${solves.field} is not null)`,
+  authorId: users.id,
+  authorName: users.name,
+  authorEmail: users.email,
+  createdAt: solves.createdAt,
+  updatedAt: solves.updatedAt,
+};
+
+type ViewRow = {
+  [K in keyof typeof viewColumns]: unknown;
+};
+
+function toView(r: ViewRow): SolveView {
+  return {
+    id: r.id as string,
+    workspaceId: r.workspaceId as string,
+    sectionId: r.sectionId as string,
+    sectionName: r.sectionName as string,
+    revisionId: r.revisionId as string,
+    revisionNumber: r.revisionNumber as number,
+    settings: r.settings,
+    settingsHash: r.settingsHash as string,
+    result: r.result,
+    status: r.status as SolveStatus,
+    hasField: Boolean(r.hasField),
+    fieldBytes: (r.fieldBytes as number | null) ?? null,
+    author: r.authorId
+      ? { id: r.authorId as string, name: ((r.authorName as string | null) ?? (r.authorEmail as string)) || '' }
+      : null,
+    createdAt: r.createdAt as Date,
+    updatedAt: r.updatedAt as Date,
+  };
+}
+
+function baseQuery(db: Awaited<ReturnType<typeof getDb>>) {
+  return db
+    .select(viewColumns)
+    .from(solves)
+    .innerJoin(sections, eq(sections.id, solves.sectionId))
+    .innerJoin(sectionRevisions, eq(sectionRevisions.id, solves.revisionId))
+    .leftJoin(users, eq(users.id, solves.authorId));
+}
+
+export interface ListSolvesOptions {
+  sectionId?: string;
+  authorId?: string;
+  from?: Date;
+  to?: Date;
+  sort?: 'created' | 'section' | 'author';
+  dir?: 'asc' | 'desc';
+  limit?: number;
+}
+
+export async function listSolves(workspaceId: string, opts: ListSolvesOptions = {}): Promise<SolveView[]> {
+  const db = await getDb();
+  const where: SQL[] = [eq(solves.workspaceId, workspaceId)];
+  if (opts.sectionId) where.push(eq(solves.sectionId, opts.sectionId));
+  if (opts.authorId) where.push(eq(solves.authorId, opts.authorId));
+  if (opts.from) where.push(gte(solves.createdAt, opts.from));
+  if (opts.to) where.push(lte(solves.createdAt, opts.to));
+  const sort = opts.sort ?? 'created';
+  const dir = opts.dir ?? (sort === 'created' ? 'desc' : 'asc');
+  const col =
+    sort === 'section' ? sql`lower(${sections.name})` : sort === 'author' ? sql`lower(coalesce(${users.name}, ${users.email}))` : solves.createdAt;
+  const ord = dir === 'asc' ? asc(col) : desc(col);
+  const rows = await baseQuery(db)
+    .where(and(...where))
+    .orderBy(ord, desc(solves.createdAt), asc(solves.id))
+    .limit(opts.limit ?? 100);
+  return rows.map(toView);
+}
+
+/** One solve of this workspace (without the field blob), or null. */
+export async function getSolve(workspaceId: string, solveId: string): Promise<SolveView | null> {
+  const db = await getDb();
+  const [row] = await baseQuery(db)
+    .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+    .limit(1);
+  return row ? toView(row) : null;
+}
+
+export type InsertSolveOutcome =
+  | { ok: true; created: boolean; solve: SolveView }
+  | { ok: false; reason: 'section_not_found' | 'revision_not_found' | 'section_deleted' };
+
+/**
+ * Store a solve of a revision. The same (revisionId, settingsHash) is one solve: when it
+ * already exists, nothing is written and the existing one is returned with created=false.
+ */
+export async function insertSolve(data: {
+  workspaceId: string;
+  sectionId: string;
+  revisionId: string;
+  authorId: string | null;
+  settings: unknown;
+  settingsHash: string;
+  result: unknown;
+  status: SolveStatus;
+}): Promise<InsertSolveOutcome> {
+  const db = await getDb();
+  const outcome = await db.transaction(async (tx) => {
+    const [section] = await tx
+      .select({ id: sections.id, deletedAt: sections.deletedAt })
+      .from(sections)
+      .where(and(eq(sections.id, data.sectionId), eq(sections.workspaceId, data.workspaceId)))
+      .limit(1);
+    if (!section) return { ok: false as const, reason: 'section_not_found' as const };
+    if (section.deletedAt) return { ok: false as const, reason: 'section_deleted' as const };
+    const [rev] = await tx
+      .select({ id: sectionRevisions.id })
+      .from(sectionRevisions)
+      .where(and(eq(sectionRevisions.id, data.revisionId), eq(sectionRevisions.sectionId, section.id)))
+      .limit(1);
+    if (!rev) return { ok: false as const, reason: 'revision_not_found' as const };
+    const inserted = await tx
+      .insert(solves)
+      .values({
+        workspaceId: data.workspaceId,
+        sectionId: data.sectionId,
+        revisionId: data.revisionId,
+        authorId: data.authorId,
+        settings: data.settings,
+        settingsHash: data.settingsHash,
+        result: data.result ?? null,
+        status: data.status,
+      })
+      .onConflictDoNothing({ target: [solves.revisionId, solves.settingsHash] })
+      .returning({ id: solves.id });
+    if (inserted[0]) {
+      await insertAuditEvent(tx, {
+        workspaceId: data.workspaceId,
+        actorId: data.authorId,
+        action: 'solve.create',
+        targetType: 'solve',
+        targetId: inserted[0].id,
+        data: { sectionId: data.sectionId, revisionId: data.revisionId, status: data.status },
+      });
+      return { ok: true as const, created: true, id: inserted[0].id };
+    }
+    const [existing] = await tx
+      .select({ id: solves.id })
+      .from(solves)
+      .where(and(eq(solves.revisionId, data.revisionId), eq(solves.settingsHash, data.settingsHash)))
+      .limit(1);
+    return { ok: true as const, created: false, id: existing!.id };
+  });
+  if (!outcome.ok) return outcome;
+  const solve = await getSolve(data.workspaceId, outcome.id);
+  return { ok: true, created: outcome.created, solve: solve! };
+}
+
+/** The stored field blob of a solve of this workspace: undefined when no such solve, null when none uploaded. */
+export async function getSolveField(workspaceId: string, solveId: string): Promise<Uint8Array | null | undefined> {
+  const db = await getDb();
+  const [row] = await db
+    .select({ field: solves.field })
+    .from(solves)
+    .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+    .limit(1);
+  if (!row) return undefined;
+  return row.field ?? null;
+}
+
+/** Store (replace) the field blob of a solve, atomically. False when no such solve in this workspace. */
+export async function setSolveField(
+  workspaceId: string,
+  solveId: string,
+  actorId: string | null,
+  field: Uint8Array,
+): Promise<boolean> {
+  const db = await getDb();
+  return db.transaction(async (tx) => {
+    const rows = await tx
+      .update(solves)
+      .set({ field, fieldBytes: field.byteLength, updatedAt: new Date() })
+      .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+      .returning({ id: solves.id });
+    if (!rows[0]) return false;
+    await insertAuditEvent(tx, {
+      workspaceId,
+      actorId,
+      action: 'solve.field',
+      targetType: 'solve',
+      targetId: solveId,
+      data: { bytes: field.byteLength },
+    });
+    return true;
+  });
+}
+
+export type { SolveRow };
