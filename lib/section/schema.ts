@@ -222,16 +222,23 @@ export const sectionSchema = z.strictObject({
 export type Section = z.infer<typeof sectionSchema>;
 export type SectionInput = z.input<typeof sectionSchema>;
 
-/** Replace every `Value` in T by `number`. */
-type Resolved<T> = T extends Value
-  ? number
-  : T extends readonly (infer U)[]
-    ? T extends readonly [unknown, unknown]
-      ? [Resolved<T[0]>, Resolved<T[1]>]
-      : Resolved<U>[]
-    : T extends object
-      ? { [K in keyof T]: Resolved<T[K]> }
-      : T;
+/**
+ * Replace every `Value` (number | expression string) in T by `number`, leaving plain
+ * string fields (ids, names, type tags) as they are. Optional values stay optional.
+ */
+type ResolveField<T> = [Exclude<T, undefined>] extends [Value]
+  ? [Value] extends [Exclude<T, undefined>]
+    ? number | Extract<T, undefined>
+    : T
+  : ResolveDeep<T>;
+type ResolveDeep<T> = T extends readonly (infer U)[]
+  ? T extends readonly [unknown, unknown]
+    ? [ResolveField<T[0]>, ResolveField<T[1]>]
+    : ResolveField<U>[]
+  : T extends object
+    ? { [K in keyof T]: ResolveField<T[K]> }
+    : T;
+type Resolved<T> = ResolveDeep<T>;
 
 /** A section in which every value is a number (still in section units). */
 export type ResolvedSection = Omit<Resolved<Section>, 'variables'> & {
