@@ -9,6 +9,7 @@
  */
 import type { Boundary, BoundarySide, Material, Net, ResolvedShape, Section, Shape, Value } from '../section/schema';
 import { shapeBox, type Box } from './geometry';
+import type { GeometryPatch } from './handles';
 import { pickNetColor } from './palette';
 import { addToValue, identifiersOf, renameIdentifier, tidy } from './values';
 
@@ -221,12 +222,12 @@ export function distributeShapes(doc: Section, resolved: readonly ResolvedShape[
  * Write new numeric geometry into a shape (from a handle drag). Only fields whose value
  * really changed are overwritten, so expressions on the untouched ones survive.
  */
-export function setShapeGeometry(doc: Section, current: ResolvedShape, geometry: Partial<Record<string, number>> & { points?: [number, number][] }): Section {
+export function setShapeGeometry(doc: Section, current: ResolvedShape, geometry: GeometryPatch): Section {
   return mapShapes(doc, new Set([current.id]), (s) => {
     const next: Record<string, unknown> = { ...s };
     let changed = false;
     for (const [k, v] of Object.entries(geometry)) {
-      if (k === 'points' || v === undefined) continue;
+      if (typeof v !== 'number') continue;
       const old = (current as Record<string, unknown>)[k];
       if (typeof old === 'number' && Math.abs(old - v) <= 1e-12 * Math.max(1, Math.abs(v))) continue;
       next[k] = tidy(v);
