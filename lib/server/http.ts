@@ -156,3 +156,8 @@ export function parseSearchParams<S extends ZodType>(req: Request, schema: S): z
   }
   return parsed.data;
 }
+
+/** The second argument Next passes to a dynamic route handler. */
+export interface RouteCtx<P extends Record<string, string | string[]>> {
+  params: Promise<P>;
+}

@@ -1,0 +1,32 @@
+import { insertSection, listSections } from '@/db/queries/sections';
+import { requireWorkspaceRole } from '@/lib/server/access';
+import { apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx } from '@/lib/server/http';
+import { createSectionSchema, listSectionsQuerySchema, MAX_SECTION_BODY_BYTES } from '@/lib/validations/section';
+
+export const dynamic = 'force-dynamic';
+type Ctx = RouteCtx<{ workspaceId: string }>;
+
+/** List sections: ?q= (name/description), sort=updated|name|created, dir=asc|desc, deleted=1 (the trash). */
+export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
+  const { workspaceId } = await ctx.params;
+  await requireWorkspaceRole(workspaceId, 'viewer');
+  const q = parseSearchParams(req, listSectionsQuerySchema);
+  const sections = await listSections(workspaceId, { q: q.q, sort: q.sort, dir: q.dir, deleted: q.deleted === '1' });
+  return json({ sections });
+});
+
+/** Create a section with its first revision (editors). */
+export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
+  const { workspaceId } = await ctx.params;
+  const { user } = await requireWorkspaceRole(workspaceId, 'editor');
+  const body = await parseJsonBody(req, createSectionSchema, { maxBytes: MAX_SECTION_BODY_BYTES });
+  const { section, revision } = await insertSection({
+    workspaceId,
+    authorId: user.id,
+    name: body.name,
+    description: body.description,
+    content: body.content,
+    message: body.message,
+  });
+  return json({ section, revision }, 201);
+});

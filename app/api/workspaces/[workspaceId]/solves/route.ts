@@ -1,0 +1,49 @@
+import { insertSolve, listSolves } from '@/db/queries/solves';
+import { requireWorkspaceRole } from '@/lib/server/access';
+import { ApiError, apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx } from '@/lib/server/http';
+import { createSolveSchema, listSolvesQuerySchema, MAX_SOLVE_BODY_BYTES } from '@/lib/validations/solve';
+
+export const dynamic = 'force-dynamic';
+type Ctx = RouteCtx<{ workspaceId: string }>;
+
+/** List solves: ?sectionId=&authorId=&from=&to=&sort=created|section|author&dir=&limit= */
+export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
+  const { workspaceId } = await ctx.params;
+  await requireWorkspaceRole(workspaceId, 'viewer');
+  const q = parseSearchParams(req, listSolvesQuerySchema);
+  const solves = await listSolves(workspaceId, {
+    sectionId: q.sectionId,
+    authorId: q.authorId,
+    from: q.from ? new Date(q.from) : undefined,
+    to: q.to ? new Date(q.to) : undefined,
+    sort: q.sort,
+    dir: q.dir,
+    limit: q.limit,
+  });
+  return json({ solves });
+});
+
+/**
+ * Store a solve (editors). The same (revisionId, settingsHash) is recognised: the existing
+ * solve comes back with 200 instead of 201 and nothing is written.
+ */
+export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
+  const { workspaceId } = await ctx.params;
+  const { user } = await requireWorkspaceRole(workspaceId, 'editor');
+  const body = await parseJsonBody(req, createSolveSchema, { maxBytes: MAX_SOLVE_BODY_BYTES });
+  const out = await insertSolve({
+    workspaceId,
+    sectionId: body.sectionId,
+    revisionId: body.revisionId,
+    authorId: user.id,
+    settings: body.settings,
+    settingsHash: body.settingsHash,
+    result: body.result ?? null,
+    status: body.status,
+  });
+  if (out.ok) return json({ solve: out.solve, created: out.created }, out.created ? 201 : 200);
+  if (out.reason === 'section_not_found') throw new ApiError(404, 'not_found', 'The section was not found.', 'sectionId');
+  if (out.reason === 'revision_not_found')
+    throw new ApiError(404, 'not_found', 'The revision was not found in this section.', 'revisionId');
+  throw new ApiError(409, 'deleted', 'The section is deleted. Restore it before storing solves.', 'sectionId');
+});
