@@ -106,3 +106,42 @@ export class SolveCancelledError extends Error {
     this.name = 'SolveCancelledError';
   }
 }
+
+/** Options of solveProblem (lib/fdm/solve-problem.ts). */
+export interface SolveProblemOptions {
+  onProgress?: (p: SolveProgress) => void;
+  isCancelled?: () => boolean;
+  /** Relative residual target of each linear solve. @default 1e-10 */
+  tolerance?: number;
+  /** Return the finest mesh's fields (potentials, cell permittivity, node nets). @default false */
+  keepFields?: boolean;
+}
+
+/** Everything solveProblem finds: capacitance matrices (F/m), error estimate, mesh and fields. */
+export interface ProblemSolution {
+  /** Indices into problem.nets, in matrix order (non-ground nets with conductors). */
+  signalNets: number[];
+  /** Maxwell matrix, F/m: reported values (extrapolated where trustworthy). */
+  maxwell: number[][];
+  /** Same with every εr = 1, F/m. */
+  vacuum: number[][];
+  /** Raw values on the finest mesh. */
+  finest: { maxwell: number[][]; vacuum: number[][] };
+  error: {
+    /** Estimated relative error of the reported values (largest over the entries that matter, vacuum included). */
+    relative: number;
+    perEntry: number[][];
+    observedOrder?: number;
+    monotone: boolean;
+    /** Maxwell matrix on each member of the mesh family, finest first. */
+    family: { nodes: number; maxwell: number[][] }[];
+    note: string;
+  };
+  /** Finest mesh, node coordinates in metres. */
+  mesh: Mesh & { nodes: number; finestSpacing: number; preset: string };
+  /** Finest mesh, dielectric solve: one potential per signal net at 1 V (others 0). */
+  fields?: { potentials: Float64Array[]; cellEpsR: Float32Array; nodeNet: Int16Array };
+  solver: { iterations: number; relResidual: number; method: string };
+  timing: { setupMs: number; solveMs: number; totalMs: number };
+  warnings: string[];
+}

@@ -1,0 +1,274 @@
+/**
+ * Graded tensor-product mesh from the geometry (scaled lengths: structure size 1).
+ *
+ * Key lines: every rect edge, polygon vertex, strip, circle extremes and centre, and every
+ * ground/mirror plane lie on mesh lines. A spacing function h(x) per axis is the minimum over
+ * key lines of (h_k + (g − 1)·|x − x_k|) (geometric growth with ratio about g away from each
+ * key line), capped at hStruct inside the structure box and growing at gFar beyond it. Each
+ * interval between key lines gets a multiple of 2^(levels−1) cells placed by inverting
+ * ∫dx/h, so the coarser members of the mesh family (every 2nd, every 4th node) are the
+ * same smooth mapping with all spacings doubled: a clean family for Richardson extrapolation.
+ */
+import type { Geometry, MeshPreset } from './types';
+import { geometryBox, type Box } from './geometry';
+
+export interface MeshParams {
+  /** Finest spacing at singular points (conductor corners, strip edges). */
+  hSing: number;
+  /** Spacing at dielectric corners. */
+  hDiel: number;
+  /** Largest spacing inside the structure box. */
+  hStruct: number;
+  /** Circle radius divided by the spacing along curved surfaces. */
+  nCurve: number;
+  /** Least number of cells across the gap between neighbouring key lines. */
+  mGap: number;
+  /** Growth ratio near features. */
+  growth: number;
+  /** Growth ratio beyond the structure box (open sides). */
+  growthFar: number;
+  /** Open sides carried this many structure sizes beyond the outermost shape. */
+  extent: number;
+}
+
+/** Finest-member parameters of the presets, in units of the structure size. */
+export const MESH_PRESET_PARAMS: Record<MeshPreset, MeshParams> = {
+  quick: { hSing: 4e-3, hDiel: 1.6e-2, hStruct: 0.05, nCurve: 12, mGap: 8, growth: 1.2, growthFar: 1.4, extent: 100 },
+  standard: { hSing: 1e-3, hDiel: 4e-3, hStruct: 0.025, nCurve: 32, mGap: 16, growth: 1.1, growthFar: 1.25, extent: 200 },
+  precise: { hSing: 2.5e-4, hDiel: 1e-3, hStruct: 0.0125, nCurve: 64, mGap: 32, growth: 1.05, growthFar: 1.15, extent: 400 },
+};
+
+/** Number of members in the mesh family (finest, ×2, ×4 spacing). */
+export const FAMILY_LEVELS = 3;
+const STEP = 1 << (FAMILY_LEVELS - 1);
+
+export interface AxisFeature {
+  /** Coordinate of the key line. */
+  at: number;
+  /** Spacing wanted at the key line. */
+  h: number;
+}
+
+export interface MeshInput {
+  conductors: Geometry[];
+  dielectrics: Geometry[];
+  /** Domain limits: a number where a ground/mirror plane ends the domain, undefined where open. */
+  limits: { left?: number; right?: number; bottom?: number; top?: number };
+  /** Structure box (conductors and planes), scaled so that its larger side is about 1. */
+  structure: Box;
+}
+
+interface Point {
+  x: number;
+  y: number;
+  h: number;
+}
+interface Span {
+  lo: number;
+  hi: number;
+  h: number;
+}
+
+/** Build the finest mesh of the family; coarser members are every 2nd and 4th node. */
+export function buildMesh(input: MeshInput, p: MeshParams): { xs: Float64Array; ys: Float64Array } {
+  const points: Point[] = [];
+  const xLines: AxisFeature[] = [];
+  const yLines: AxisFeature[] = [];
+  const xSpans: Span[] = [];
+  const ySpans: Span[] = [];
+
+  const addShape = (g: Geometry, conductor: boolean) => {
+    const hc = conductor ? p.hSing : p.hDiel;
+    switch (g.type) {
+      case 'rect':
+        for (const x of [g.x, g.x + g.width]) for (const y of [g.y, g.y + g.height]) points.push({ x, y, h: hc });
+        break;
+      case 'strip':
+        points.push({ x: g.x1, y: g.y1, h: p.hSing }, { x: g.x2, y: g.y2, h: p.hSing });
+        break;
+      case 'polygon':
+        for (const [x, y] of g.points) points.push({ x, y, h: hc });
+        break;
+      case 'circle':
+      case 'ring': {
+        const radii = g.type === 'circle' ? [g.r] : [g.rInner, g.rOuter];
+        for (const r of radii) {
+          const h = r / p.nCurve;
+          xLines.push({ at: g.cx - r, h }, { at: g.cx + r, h });
+          yLines.push({ at: g.cy - r, h }, { at: g.cy + r, h });
+          xSpans.push({ lo: g.cx - r, hi: g.cx + r, h });
+          ySpans.push({ lo: g.cy - r, hi: g.cy + r, h });
+        }
+        xLines.push({ at: g.cx, h: Infinity });
+        yLines.push({ at: g.cy, h: Infinity });
+        break;
+      }
+    }
+  };
+  for (const g of input.conductors) addShape(g, true);
+  for (const g of input.dielectrics) addShape(g, false);
+
+  const { left, right, bottom, top } = input.limits;
+  if (left !== undefined) xLines.push({ at: left, h: p.hStruct });
+  if (right !== undefined) xLines.push({ at: right, h: p.hStruct });
+  if (bottom !== undefined) yLines.push({ at: bottom, h: p.hStruct });
+  if (top !== undefined) yLines.push({ at: top, h: p.hStruct });
+
+  // Gaps between neighbouring key coordinates limit the spacing there.
+  const xKeys = uniqueSorted([...points.map((q) => q.x), ...xLines.map((l) => l.at)]);
+  const yKeys = uniqueSorted([...points.map((q) => q.y), ...yLines.map((l) => l.at)]);
+  const gapX = (x: number) => localGap(xKeys, x) / p.mGap;
+  const gapY = (y: number) => localGap(yKeys, y) / p.mGap;
+  for (const q of points) {
+    const h = Math.min(q.h, gapX(q.x), gapY(q.y));
+    xLines.push({ at: q.x, h });
+    yLines.push({ at: q.y, h });
+  }
+  for (const l of xLines) l.h = Math.min(l.h, gapX(l.at), p.hStruct);
+  for (const l of yLines) l.h = Math.min(l.h, gapY(l.at), p.hStruct);
+
+  // Domain: planes end it; open sides are carried extent sizes beyond every shape.
+  const all = boxOf([...input.conductors, ...input.dielectrics], input.structure);
+  const ext = p.extent * Math.max(input.structure.x1 - input.structure.x0, input.structure.y1 - input.structure.y0);
+  const x0 = left ?? all.x0 - ext;
+  const x1 = right ?? all.x1 + ext;
+  const y0 = bottom ?? all.y0 - ext;
+  const y1 = top ?? all.y1 + ext;
+  const sx = input.structure;
+  const margin = Math.max(sx.x1 - sx.x0, sx.y1 - sx.y0);
+  const xs = buildAxis(x0, x1, xLines, xSpans, sx.x0 - margin, sx.x1 + margin, p);
+  const ys = buildAxis(y0, y1, yLines, ySpans, sx.y0 - margin, sx.y1 + margin, p);
+  return { xs, ys };
+}
+
+function boxOf(gs: Geometry[], start: Box): Box {
+  const b = { ...start };
+  for (const g of gs) {
+    const q = geometryBox(g);
+    b.x0 = Math.min(b.x0, q.x0);
+    b.y0 = Math.min(b.y0, q.y0);
+    b.x1 = Math.max(b.x1, q.x1);
+    b.y1 = Math.max(b.y1, q.y1);
+  }
+  return b;
+}
+
+function uniqueSorted(v: number[]): number[] {
+  const s = v.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
+  const out: number[] = [];
+  for (const x of s) if (out.length === 0 || x - out[out.length - 1] > 1e-9) out.push(x);
+  return out;
+}
+
+/** Distance from key x to its nearest distinct neighbour among keys (Infinity if alone). */
+function localGap(keys: number[], x: number): number {
+  let best = Infinity;
+  for (const k of keys) {
+    const d = Math.abs(k - x);
+    if (d > 1e-9 && d < best) best = d;
+  }
+  return best;
+}
+
+/**
+ * One axis. Features with spacing h_k influence h(x) = h_k + (g−1)|x − x_k|; spans cap h
+ * inside them; inside [b0, b1] h ≤ hStruct, outside it h grows at gFar from the value at b0/b1.
+ */
+export function buildAxis(
+  lo: number,
+  hi: number,
+  lines: AxisFeature[],
+  spans: Span[],
+  b0: number,
+  b1: number,
+  p: MeshParams,
+): Float64Array {
+  const feats = lines.filter((l) => l.at >= lo - 1e-9 && l.at <= hi + 1e-9);
+  const keys = uniqueSorted([lo, hi, ...feats.map((l) => l.at)]).filter((x) => x >= lo - 1e-9 && x <= hi + 1e-9);
+  keys[0] = lo;
+  keys[keys.length - 1] = hi;
+  const slope = p.growth - 1;
+  const slopeFar = p.growthFar - 1;
+  const active = feats.filter((l) => Number.isFinite(l.h));
+  // Key lines outside the structure box need not be fine.
+  const fx = new Float64Array(active.length);
+  const fh = new Float64Array(active.length);
+  active.forEach((l, i) => {
+    const d = l.at < b0 ? b0 - l.at : l.at > b1 ? l.at - b1 : 0;
+    fx[i] = l.at;
+    fh[i] = Math.max(l.h, 0.25 * slopeFar * d);
+  });
+  const near = (x: number): number => {
+    let h = Infinity;
+    for (let i = 0; i < fx.length; i++) {
+      const v = fh[i] + slope * Math.abs(x - fx[i]);
+      if (v < h) h = v;
+    }
+    for (const s of spans) {
+      if (x >= s.lo && x <= s.hi && s.h < h) h = s.h;
+    }
+    return h;
+  };
+  const inner = (x: number) => Math.min(near(x), p.hStruct);
+  const hb0 = inner(b0);
+  const hb1 = inner(b1);
+  const h = (x: number): number => {
+    if (x < b0) return Math.min(hb0 + slopeFar * (b0 - x), near(x));
+    if (x > b1) return Math.min(hb1 + slopeFar * (x - b1), near(x));
+    return inner(x);
+  };
+
+  const out: number[] = [lo];
+  const delta = 1 / 16;
+  const tx: number[] = [];
+  const tf: number[] = [];
+  for (let k = 0; k + 1 < keys.length; k++) {
+    const a = keys[k];
+    const b = keys[k + 1];
+    if (b - a <= 1e-12) continue;
+    // march x ← x + δ·h(x) (midpoint rule) to tabulate F(x) = ∫ dx/h
+    tx.length = 0;
+    tf.length = 0;
+    tx.push(a);
+    tf.push(0);
+    let x = a;
+    let f = 0;
+    for (let guard = 0; guard < 1_000_000; guard++) {
+      const h1 = h(x);
+      const hm = h(Math.min(b, x + 0.5 * delta * h1));
+      const dx = delta * hm;
+      if (x + dx >= b) {
+        f += (b - x) / hm;
+        x = b;
+        tx.push(x);
+        tf.push(f);
+        break;
+      }
+      x += dx;
+      f += delta;
+      tx.push(x);
+      tf.push(f);
+    }
+    const nCoarse = Math.max(1, Math.ceil(f / STEP - 1e-9));
+    const n = nCoarse * STEP;
+    let m = 0;
+    for (let c = 1; c < n; c++) {
+      const target = (c * f) / n;
+      while (m + 1 < tf.length - 1 && tf[m + 1] < target) m++;
+      const t = (target - tf[m]) / (tf[m + 1] - tf[m]);
+      out.push(tx[m] + t * (tx[m + 1] - tx[m]));
+    }
+    out.push(b);
+  }
+  return Float64Array.from(out);
+}
+
+/** Every `step`-th entry of a finest axis (a coarser member of the family). */
+export function subsampleAxis(xs: Float64Array, step: number): Float64Array {
+  const n = Math.floor((xs.length - 1) / step) + 1;
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = xs[i * step];
+  return out;
+}
+
+export { STEP as FAMILY_STEP };
