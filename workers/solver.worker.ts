@@ -1,0 +1,62 @@
+/// <reference lib="webworker" />
+/**
+ * The solver worker: a thin adapter that runs solveSection (lib/engine) off the main thread.
+ * Progress streams back through a Comlink.proxy callback (throttled, stage changes always
+ * sent); the field arrays are transferred, not copied. Cancellation: a SharedArrayBuffer flag
+ * when the page is cross-origin isolated, otherwise the page terminates this worker.
+ */
+import * as Comlink from 'comlink';
+import { solveSection } from '@/lib/engine/solve-section';
+import { SolveCancelledError } from '@/lib/fdm/types';
+import { fieldBuffers, type SolveOutcome, type SolveRequest, type SolverWorkerApi, type WorkerProgress } from './protocol';
+
+const PROGRESS_INTERVAL_MS = 60;
+
+const api: SolverWorkerApi = {
+  async ping() {
+    return 'pong';
+  },
+  async solve(req: SolveRequest, onProgress: (p: WorkerProgress) => void): Promise<SolveOutcome> {
+    const t0 = performance.now();
+    const flag = req.cancelFlag ? new Int32Array(req.cancelFlag) : null;
+    let lastSent = 0;
+    let lastStage = '';
+    try {
+      const { result, fields } = solveSection(req.section, {
+        keepFields: true,
+        tolerance: req.settings.tolerance,
+        preset: req.settings.preset,
+        isCancelled: () => (flag ? Atomics.load(flag, 0) !== 0 : false),
+        onProgress: (p) => {
+          const now = performance.now();
+          if (p.stage !== lastStage || now - lastSent >= PROGRESS_INTERVAL_MS) {
+            lastStage = p.stage;
+            lastSent = now;
+            // fire and forget: the page's callback returns nothing we wait for
+            void onProgress({ ...p, jobId: req.jobId, elapsedMs: now - t0 });
+          }
+        },
+      });
+      if (!fields) throw new Error('the engine returned no field arrays');
+      const out: SolveOutcome = { ok: true, jobId: req.jobId, result, fields, workerMs: performance.now() - t0 };
+      return Comlink.transfer(out, fieldBuffers(fields));
+    } catch (e) {
+      if (e instanceof SolveCancelledError) return { ok: false, jobId: req.jobId, cancelled: true, message: 'Solve cancelled.' };
+      const issues = (e as { issues?: unknown }).issues;
+      return {
+        ok: false,
+        jobId: req.jobId,
+        cancelled: false,
+        message: e instanceof Error ? e.message : String(e),
+        issues: Array.isArray(issues)
+          ? issues.map((i: { message?: unknown; path?: unknown }) => ({
+              message: String(i.message ?? i),
+              path: typeof i.path === 'string' ? i.path : Array.isArray(i.path) ? i.path.join('.') : undefined,
+            }))
+          : undefined,
+      };
+    }
+  },
+};
+
+Comlink.expose(api);
