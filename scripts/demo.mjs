@@ -1,0 +1,82 @@
+#!/usr/bin/env node
+/**
+ * `npm run demo`: build the app if the build is missing or older than the sources, then start
+ * it in demo mode (EDGEFIELD_DEMO=1) at http://localhost:${PORT:-3000}. At start the server
+ * applies the migrations, seeds an empty database with the fictional demo team, starts the
+ * demo mail catcher (EDGEFIELD_SMTP_PORT, default 2525) and prints the demo sign-ins.
+ *
+ * Environment: PORT, EDGEFIELD_DATA_DIR (default ./data), NEXT_DIST_DIR (default .next),
+ * DATABASE_URL (optional PostgreSQL server), EDGEFIELD_SMTP_PORT.
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+process.chdir(root);
+
+const port = process.env.PORT || '3000';
+const distDir = process.env.NEXT_DIST_DIR || '.next';
+const env = {
+  ...process.env,
+  PORT: port,
+  EDGEFIELD_DEMO: '1',
+  NEXT_TELEMETRY_DISABLED: '1',
+  NEXTAUTH_URL: process.env.NEXTAUTH_URL || `http://localhost:${port}`,
+};
+const nextBin = path.join(root, 'node_modules', 'next', 'dist', 'bin', 'next');
+
+if (!fs.existsSync(nextBin)) {
+  console.log('demo: installing packages (npm ci)');
+  run('npm', ['ci']);
+}
+
+const SOURCES = [
+  'app', 'components', 'lib', 'db', 'workers', 'public', 'instrumentation.ts', 'proxy.ts', 'middleware.ts',
+  'next.config.mjs', 'package.json', 'package-lock.json', 'postcss.config.mjs', 'tailwind.config.ts', 'tsconfig.json',
+];
+
+function newestMtime(p) {
+  let st;
+  try {
+    st = fs.statSync(p);
+  } catch {
+    return 0;
+  }
+  if (!st.isDirectory()) return st.mtimeMs;
+  let m = 0;
+  for (const e of fs.readdirSync(p)) {
+    if (e === 'node_modules' || e.startsWith('.')) continue;
+    m = Math.max(m, newestMtime(path.join(p, e)));
+  }
+  return m;
+}
+
+function run(cmd, args) {
+  const r = spawnSync(cmd, args, { stdio: 'inherit', env });
+  if (r.status !== 0) {
+    console.error(`demo: "${cmd} ${args.join(' ')}" failed (exit ${r.status ?? r.signal})`);
+    process.exit(r.status || 1);
+  }
+}
+
+const buildId = path.join(distDir, 'BUILD_ID');
+let builtAt = 0;
+try {
+  builtAt = fs.statSync(buildId).mtimeMs;
+} catch {
+  /* no build yet */
+}
+const sourcesAt = Math.max(...SOURCES.map(newestMtime));
+if (!builtAt || sourcesAt > builtAt) {
+  console.log(builtAt ? 'demo: sources changed since the last build; building' : 'demo: building the app (first run, about a minute)');
+  run(process.execPath, [nextBin, 'build']);
+} else {
+  console.log(`demo: using the existing build in ${distDir}`);
+}
+
+console.log(`demo: starting Edgefield at http://localhost:${port} (demo mode)`);
+const child = spawn(process.execPath, [nextBin, 'start', '-p', port], { stdio: 'inherit', env });
+for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => child.kill(sig));
+child.on('exit', (code, signal) => process.exit(code ?? (signal ? 0 : 1)));
