@@ -6,7 +6,12 @@ import { cn } from '@/components/ui/cn';
  */
 export function LogoMark({ className, title = 'Edgefield' }: { className?: string; title?: string }) {
   return (
-    <svg viewBox="0 0 32 32" role="img" aria-label={title} className={cn('size-7 shrink-0', className)}>
+    <svg
+      viewBox="0 0 32 32"
+      role={title ? 'img' : undefined}
+      aria-label={title || undefined}
+      aria-hidden={title ? undefined : true}
+      className={cn('size-7 shrink-0', className)}>
       <rect x="0" y="0" width="32" height="32" rx="7" fill="#1d2830" />
       <g fill="none" stroke="#8fb3cb" strokeWidth="1.6" strokeLinecap="round">
         <path d="M6.5 15v9" />
