@@ -1,0 +1,31 @@
+/**
+ * The comment thread of a solve. Every member may read and comment (viewers too: commenting
+ * does not change the solve).
+ */
+import { getSolve } from '@/db/queries/solves';
+import { insertComment, listComments } from '@/db/queries/comments';
+import { requireWorkspaceRole } from '@/lib/server/access';
+import { apiHandler, json, notFound, parseJsonBody, type RouteCtx } from '@/lib/server/http';
+import { createCommentSchema } from '@/lib/validations/comment';
+
+export const dynamic = 'force-dynamic';
+type Ctx = RouteCtx<{ workspaceId: string; solveId: string }>;
+
+const MAX_COMMENT_BODY_BYTES = 32 * 1024;
+
+export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
+  const { workspaceId, solveId } = await ctx.params;
+  await requireWorkspaceRole(workspaceId, 'viewer');
+  const solve = await getSolve(workspaceId, solveId);
+  if (!solve) throw notFound('The solve');
+  return json({ comments: await listComments(workspaceId, solveId) });
+});
+
+export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
+  const { workspaceId, solveId } = await ctx.params;
+  const { user } = await requireWorkspaceRole(workspaceId, 'viewer');
+  const body = await parseJsonBody(req, createCommentSchema, { maxBytes: MAX_COMMENT_BODY_BYTES });
+  const comment = await insertComment({ workspaceId, solveId, authorId: user.id, body: body.body });
+  if (!comment) throw notFound('The solve');
+  return json({ comment }, 201);
+});
