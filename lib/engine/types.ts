@@ -43,6 +43,14 @@ export interface PlatesValues {
   /** ε·width/gap of the medium in the gap, F/m. */
   idealPerM: number;
   solvedOverIdeal: number;
+  /** Solved two-terminal capacitance between the plates, F/m (see docs/result-format.md). */
+  solvedPerM?: number;
+  /** Relative permittivity of the medium at the centre of the gap. */
+  epsR?: number;
+  /** 'vertical': one plate above the other; 'horizontal': side by side. */
+  arrangement?: 'vertical' | 'horizontal';
+  /** The two plate shapes (lower or left one first). */
+  shapeIds?: [string, string];
 }
 
 export interface SectionResult {
@@ -82,4 +90,6 @@ export interface SectionFields {
   cellEpsR: Float32Array;
   /** Conductor net index per node, −1 where free; Int16Array(nx*ny). */
   nodeNet: Int16Array;
+  /** Net name of each nodeNet index (nets without shapes are left out of the solve). */
+  netNames?: string[];
 }

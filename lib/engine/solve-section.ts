@@ -1,0 +1,188 @@
+/**
+ * Solve one section: validate and resolve it, convert it to metres and to the numerical
+ * core's Problem, solve, and build the "edgefield.result/1" JSON (lib/engine/types.ts).
+ * Synchronous and deterministic: the CLI, the tests and the Web Worker call this same
+ * function and get the same numbers for the same section and settings.
+ *
+ * Conventions (see docs/result-format.md):
+ * - reference: the ground nets that have shapes, plus "(boundary)" when a boundary side
+ *   is a ground plane.
+ * - nets: the signal nets that have shapes, in matrix order (section order).
+ * - mutual (branch) form: mutual_ii = Σ_j C_ij (the capacitance of net i to the
+ *   reference), mutual_ij = −C_ij (Paul 2008, Analysis of Multiconductor Transmission
+ *   Lines, 2nd ed., ch. 3).
+ * - line values (exactly one signal net): L' = μ0 ε0 / C0, Z0 = 1/(c √(C C0)),
+ *   εeff = C/C0, v = c/√εeff, delay = 1/v, with C0 the capacitance with every dielectric
+ *   replaced by vacuum.
+ * - plates: see plates.ts and twoTerminalCapacitance below.
+ */
+import { solveProblem } from '../fdm/index';
+import type { MeshPreset, ProblemSolution, SolveProgress } from '../fdm/types';
+import { parseSectionValue } from '../section/parse';
+import { SectionError, type SectionIssue } from '../section/issues';
+import type { ResolvedSection, Section } from '../section/schema';
+import { C_LIGHT, EPS0, MU0 } from './constants';
+import { detectPlates } from './plates';
+import { toProblem } from './to-problem';
+import { RESULT_FORMAT, type LineValues, type PlatesValues, type SectionFields, type SectionResult } from './types';
+
+export { SectionError } from '../section/issues';
+export { SolveCancelledError } from '../fdm/types';
+
+export interface SolveSectionOptions {
+  onProgress?: (p: SolveProgress) => void;
+  isCancelled?: () => boolean;
+  /** Return the field arrays of the finest mesh. @default false */
+  keepFields?: boolean;
+  /** Relative residual target of each linear solve. @default 1e-10 (the core's default) */
+  tolerance?: number;
+  /** Mesh preset; overrides the section's `mesh.preset`. */
+  preset?: MeshPreset;
+}
+
+export interface SolveSectionOutput {
+  result: SectionResult;
+  fields?: SectionFields;
+}
+
+/** Name used in `reference` for ground boundaries. */
+export const BOUNDARY_REFERENCE = '(boundary)';
+
+const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+/**
+ * Two-terminal capacitance between signal nets i and j with the reference left floating:
+ * the mutual capacitance in parallel with the series pair of their capacitances to the
+ * reference, (C_ii C_jj − C_ij²)/(C_ii + C_jj + 2 C_ij) in Maxwell entries.
+ */
+export function twoTerminalCapacitance(maxwell: number[][], i: number, j: number): number {
+  const cii = maxwell[i]![i]!,
+    cjj = maxwell[j]![j]!,
+    cij = maxwell[i]![j]!;
+  return (cii * cjj - cij * cij) / (cii + cjj + 2 * cij);
+}
+
+/** Mutual (branch) form of a Maxwell matrix. */
+export function mutualForm(maxwell: number[][]): number[][] {
+  return maxwell.map((row, i) => row.map((v, j) => (i === j ? row.reduce((a, b) => a + b, 0) : -v)));
+}
+
+export function lineValues(c: number, c0: number): LineValues {
+  const epsEff = c / c0;
+  const velocity = C_LIGHT / Math.sqrt(epsEff);
+  return {
+    capacitancePerM: c,
+    inductancePerM: (MU0 * EPS0) / c0,
+    z0Ohm: 1 / (C_LIGHT * Math.sqrt(c * c0)),
+    epsEff,
+    velocityMPerS: velocity,
+    delaySPerM: 1 / velocity,
+    vacuumCapacitancePerM: c0,
+  };
+}
+
+/** Validate a section (throws SectionError) and return its resolved form and warnings. */
+export function validateSection(section: Section | unknown): { resolved: ResolvedSection; warnings: SectionIssue[] } {
+  const parsed = parseSectionValue(section);
+  if (!parsed.ok) throw new SectionError(parsed.message, parsed.issues);
+  return { resolved: parsed.resolved, warnings: parsed.warnings };
+}
+
+/** Build the result JSON from a solution (exported for tests). */
+export function buildResult(
+  resolved: ResolvedSection,
+  sol: ProblemSolution,
+  netNames: string[],
+  extraWarnings: string[],
+  ms: number,
+): SectionResult {
+  const nets = sol.signalNets.map((k) => netNames[k]!);
+  const groundNames = resolved.nets.filter((n) => n.role === 'ground' && netNames.includes(n.name)).map((n) => n.name);
+  const b = resolved.boundary;
+  const reference = [...groundNames, ...([b.left, b.right, b.bottom, b.top].some((s) => s.type === 'ground') ? [BOUNDARY_REFERENCE] : [])];
+
+  const result: SectionResult = {
+    format: RESULT_FORMAT,
+    reference,
+    nets,
+    capacitance: { maxwell: sol.maxwell, mutual: mutualForm(sol.maxwell), vacuum: sol.vacuum },
+    errorEstimate: {
+      relative: sol.error.relative,
+      perEntry: sol.error.perEntry,
+      ...(sol.error.observedOrder !== undefined ? { observedOrder: sol.error.observedOrder } : {}),
+      monotone: sol.error.monotone,
+      family: sol.error.family,
+      note: sol.error.note,
+    },
+    mesh: { nodes: sol.mesh.nodes, nx: sol.mesh.nx, ny: sol.mesh.ny, preset: sol.mesh.preset, finestM: sol.mesh.finestSpacing },
+    solver: { ...sol.solver },
+    timing: { ms, setupMs: sol.timing.setupMs, solveMs: sol.timing.solveMs },
+    warnings: [...extraWarnings, ...sol.warnings],
+  };
+
+  if (nets.length === 1) result.line = lineValues(sol.maxwell[0]![0]!, sol.vacuum[0]![0]!);
+
+  const pair = detectPlates(resolved);
+  if (pair) {
+    const idx = pair.nets.map((n) => nets.indexOf(n));
+    let solved: number | undefined;
+    if (idx[0]! >= 0 && idx[1]! >= 0) solved = twoTerminalCapacitance(sol.maxwell, idx[0]!, idx[1]!);
+    else if (idx[0]! >= 0 || idx[1]! >= 0) {
+      const i = Math.max(idx[0]!, idx[1]!);
+      solved = sol.maxwell[i]![i]!;
+    }
+    if (solved !== undefined) {
+      const idealPerM = (EPS0 * pair.epsR * pair.width) / pair.gap;
+      const plates: PlatesValues = {
+        gap: pair.gap,
+        width: pair.width,
+        gapToWidth: pair.gap / pair.width,
+        idealPerM,
+        solvedOverIdeal: solved / idealPerM,
+        solvedPerM: solved,
+        epsR: pair.epsR,
+        arrangement: pair.arrangement,
+        shapeIds: pair.shapeIds,
+      };
+      result.plates = plates;
+    }
+  }
+  return result;
+}
+
+/**
+ * Solve a section. Throws SectionError (with the issues) when the section is invalid,
+ * SolveCancelledError when cancelled, RangeError when the core refuses the problem
+ * (for example beyond the node limit).
+ */
+export function solveSection(section: Section, opts: SolveSectionOptions = {}): SolveSectionOutput {
+  const t0 = now();
+  const { resolved, warnings } = validateSection(section);
+  const { problem, netNames } = toProblem(resolved, opts.preset !== undefined ? { preset: opts.preset } : {});
+  const sol = solveProblem(problem, {
+    ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
+    ...(opts.isCancelled ? { isCancelled: opts.isCancelled } : {}),
+    ...(opts.tolerance !== undefined ? { tolerance: opts.tolerance } : {}),
+    keepFields: opts.keepFields ?? false,
+  });
+  const ms = now() - t0;
+  const result = buildResult(
+    resolved,
+    sol,
+    netNames,
+    warnings.map((w) => w.message),
+    ms,
+  );
+  const out: SolveSectionOutput = { result };
+  if (opts.keepFields && sol.fields) {
+    out.fields = {
+      xs: sol.mesh.xs,
+      ys: sol.mesh.ys,
+      potentials: sol.fields.potentials,
+      cellEpsR: sol.fields.cellEpsR,
+      nodeNet: sol.fields.nodeNet,
+      netNames,
+    };
+  }
+  return out;
+}
