@@ -36,7 +36,7 @@ export default async function LoginPage({
   if (user) redirect(callbackUrl);
   const demo = isDemoMode();
   const error = typeof sp.error === 'string' ? sp.error : undefined;
-  const sent = sp.check === '1' || sp.sent === '1';
+  const sent = typeof sp.check === 'string' && sp.check !== '';
   return (
     <LoginForm
       callbackUrl={callbackUrl}
