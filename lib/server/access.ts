@@ -2,7 +2,7 @@ import 'server-only';
 import { notFound } from 'next/navigation';
 import type { Role } from '@/db/schema';
 import { getMembershipRow, getWorkspace } from '@/db/queries/workspaces';
-import { ApiError, forbidden, unauthorized } from './http';
+import { ApiError, forbidden, isId, unauthorized } from './http';
 import { getSessionUser, requireUser, type SessionUser } from './session';
 
 export type { Role };
@@ -29,7 +29,7 @@ export async function requireWorkspaceRole(
 ): Promise<{ user: SessionUser; role: Role }> {
   const user = await getSessionUser();
   if (!user) throw unauthorized();
-  const m = await getMembership(user.id, workspaceId);
+  const m = isId(workspaceId) ? await getMembership(user.id, workspaceId) : null;
   if (!m) throw new ApiError(404, 'not_found', 'The workspace was not found.');
   if (!roleAtLeast(m.role, needed)) {
     throw forbidden(
@@ -47,7 +47,7 @@ export async function requireWorkspaceRole(
  */
 export async function requireWorkspaceMember(workspaceId: string) {
   const user = await requireUser();
-  const m = await getMembership(user.id, workspaceId);
+  const m = isId(workspaceId) ? await getMembership(user.id, workspaceId) : null;
   if (!m) notFound();
   const workspace = await getWorkspace(workspaceId);
   if (!workspace) notFound();

@@ -134,6 +134,11 @@ export async function parseJsonBody<S extends ZodType>(
   } catch {
     throw new ApiError(400, 'bad_json', 'The request body is not valid JSON.');
   }
+  const nul = findNul(data, []);
+  if (nul) {
+    const field = issuePath(nul);
+    throw new ApiError(422, 'invalid', `${field ?? 'body'}: text must not contain NUL characters.`, field);
+  }
   const parsed = schema.safeParse(data);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -143,11 +148,33 @@ export async function parseJsonBody<S extends ZodType>(
   return parsed.data;
 }
 
+/** Path of the first string or key holding a NUL character (PostgreSQL text cannot store it). */
+function findNul(v: unknown, path: (string | number)[], depth = 0): (string | number)[] | null {
+  if (typeof v === 'string') return v.includes('\0') ? path : null;
+  if (depth > 200 || v === null || typeof v !== 'object') return null;
+  if (Array.isArray(v)) {
+    for (let i = 0; i < v.length; i++) {
+      const r = findNul(v[i], [...path, i], depth + 1);
+      if (r) return r;
+    }
+    return null;
+  }
+  for (const [k, x] of Object.entries(v)) {
+    if (k.includes('\0')) return [...path, k];
+    const r = findNul(x, [...path, k], depth + 1);
+    if (r) return r;
+  }
+  return null;
+}
+
 /** Validate URL search parameters with `schema` (422 with the parameter name on failure). */
 export function parseSearchParams<S extends ZodType>(req: Request, schema: S): z.output<S> {
   const url = new URL(req.url);
   const obj: Record<string, string> = {};
-  for (const [k, v] of url.searchParams) obj[k] = v;
+  for (const [k, v] of url.searchParams) {
+    if (k.includes('\0') || v.includes('\0')) throw new ApiError(422, 'invalid', `${k}: must not contain NUL characters.`, k);
+    obj[k] = v;
+  }
   const parsed = schema.safeParse(obj);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -155,6 +182,25 @@ export function parseSearchParams<S extends ZodType>(req: Request, schema: S): z
     throw new ApiError(422, 'invalid', issue ? (field ? `${field}: ${issue.message}` : issue.message) : 'Invalid query.', field);
   }
   return parsed.data;
+}
+
+const ID_RE = /^[A-Za-z0-9_-]{1,64}$/;
+
+/** True for strings shaped like our ids (UUIDs and similar). */
+export function isId(v: unknown): v is string {
+  return typeof v === 'string' && ID_RE.test(v);
+}
+
+/**
+ * Await a dynamic route's params and check that each id looks like one of ours; anything
+ * else cannot exist, so it is a 404 (and never reaches the database).
+ */
+export async function readParams<P extends Record<string, string>>(ctx: RouteCtx<P>): Promise<P> {
+  const p = await ctx.params;
+  for (const v of Object.values(p)) {
+    if (typeof v !== 'string' || !ID_RE.test(v)) throw new ApiError(404, 'not_found', 'The item was not found.');
+  }
+  return p;
 }
 
 /** The second argument Next passes to a dynamic route handler. */

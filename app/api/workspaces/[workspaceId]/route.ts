@@ -1,6 +1,6 @@
 import { getWorkspace, getWorkspaceCounts, updateWorkspace } from '@/db/queries/workspaces';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { apiHandler, json, notFound, parseJsonBody, type RouteCtx } from '@/lib/server/http';
+import { apiHandler, json, notFound, parseJsonBody, type RouteCtx, readParams } from '@/lib/server/http';
 import { updateWorkspaceSchema } from '@/lib/validations/workspace';
 
 export const dynamic = 'force-dynamic';
@@ -8,7 +8,7 @@ type Ctx = RouteCtx<{ workspaceId: string }>;
 
 /** The workspace, the caller's role and counts (any member). */
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
-  const { workspaceId } = await ctx.params;
+  const { workspaceId } = await readParams(ctx);
   const { role } = await requireWorkspaceRole(workspaceId, 'viewer');
   const ws = await getWorkspace(workspaceId);
   if (!ws) throw notFound('The workspace');
@@ -17,7 +17,7 @@ export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
 
 /** Rename the workspace (owners). */
 export const PATCH = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId } = await ctx.params;
+  const { workspaceId } = await readParams(ctx);
   const { user, role } = await requireWorkspaceRole(workspaceId, 'owner');
   const body = await parseJsonBody(req, updateWorkspaceSchema, { maxBytes: 16 * 1024 });
   const ws = await updateWorkspace(workspaceId, user.id, body);

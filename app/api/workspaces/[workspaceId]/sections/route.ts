@@ -1,6 +1,6 @@
 import { insertSection, listSections } from '@/db/queries/sections';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx } from '@/lib/server/http';
+import { apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx, readParams } from '@/lib/server/http';
 import { createSectionSchema, listSectionsQuerySchema, MAX_SECTION_BODY_BYTES } from '@/lib/validations/section';
 
 export const dynamic = 'force-dynamic';
@@ -8,7 +8,7 @@ type Ctx = RouteCtx<{ workspaceId: string }>;
 
 /** List sections: ?q= (name/description), sort=updated|name|created, dir=asc|desc, deleted=1 (the trash). */
 export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId } = await ctx.params;
+  const { workspaceId } = await readParams(ctx);
   await requireWorkspaceRole(workspaceId, 'viewer');
   const q = parseSearchParams(req, listSectionsQuerySchema);
   const sections = await listSections(workspaceId, { q: q.q, sort: q.sort, dir: q.dir, deleted: q.deleted === '1' });
@@ -17,7 +17,7 @@ export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
 
 /** Create a section with its first revision (editors). */
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId } = await ctx.params;
+  const { workspaceId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const body = await parseJsonBody(req, createSectionSchema, { maxBytes: MAX_SECTION_BODY_BYTES });
   const { section, revision } = await insertSection({

@@ -1,6 +1,6 @@
 import { insertSolve, listSolves } from '@/db/queries/solves';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { ApiError, apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx } from '@/lib/server/http';
+import { ApiError, apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx, readParams } from '@/lib/server/http';
 import { createSolveSchema, listSolvesQuerySchema, MAX_SOLVE_BODY_BYTES } from '@/lib/validations/solve';
 
 export const dynamic = 'force-dynamic';
@@ -8,7 +8,7 @@ type Ctx = RouteCtx<{ workspaceId: string }>;
 
 /** List solves: ?sectionId=&authorId=&from=&to=&sort=created|section|author&dir=&limit= */
 export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId } = await ctx.params;
+  const { workspaceId } = await readParams(ctx);
   await requireWorkspaceRole(workspaceId, 'viewer');
   const q = parseSearchParams(req, listSolvesQuerySchema);
   const solves = await listSolves(workspaceId, {
@@ -28,7 +28,7 @@ export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
  * solve comes back with 200 instead of 201 and nothing is written.
  */
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId } = await ctx.params;
+  const { workspaceId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const body = await parseJsonBody(req, createSolveSchema, { maxBytes: MAX_SOLVE_BODY_BYTES });
   const out = await insertSolve({

@@ -1,6 +1,6 @@
 import { getSection, setSectionDeleted, updateSectionMeta } from '@/db/queries/sections';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { apiHandler, json, notFound, parseJsonBody, type RouteCtx } from '@/lib/server/http';
+import { apiHandler, json, notFound, parseJsonBody, type RouteCtx, readParams } from '@/lib/server/http';
 import { updateSectionSchema } from '@/lib/validations/section';
 
 export const dynamic = 'force-dynamic';
@@ -8,7 +8,7 @@ type Ctx = RouteCtx<{ workspaceId: string; sectionId: string }>;
 
 /** The section with its latest revision (content included). Deleted sections too (deletedAt set). */
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
-  const { workspaceId, sectionId } = await ctx.params;
+  const { workspaceId, sectionId } = await readParams(ctx);
   await requireWorkspaceRole(workspaceId, 'viewer');
   const section = await getSection(workspaceId, sectionId);
   if (!section) throw notFound('The section');
@@ -17,7 +17,7 @@ export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
 
 /** Rename or re-describe (editors). */
 export const PATCH = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId, sectionId } = await ctx.params;
+  const { workspaceId, sectionId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const body = await parseJsonBody(req, updateSectionSchema, { maxBytes: 64 * 1024 });
   const section = await updateSectionMeta(workspaceId, sectionId, user.id, body);
@@ -27,7 +27,7 @@ export const PATCH = apiHandler(async (req: Request, ctx: Ctx) => {
 
 /** Soft delete (editors); restore with POST …/restore. */
 export const DELETE = apiHandler(async (_req: Request, ctx: Ctx) => {
-  const { workspaceId, sectionId } = await ctx.params;
+  const { workspaceId, sectionId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const section = await setSectionDeleted(workspaceId, sectionId, user.id, true);
   if (!section) throw notFound('The section');

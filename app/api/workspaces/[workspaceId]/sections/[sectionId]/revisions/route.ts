@@ -1,6 +1,6 @@
 import { getSectionRow, insertRevision, listRevisions } from '@/db/queries/sections';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { ApiError, apiHandler, json, notFound, parseJsonBody, type RouteCtx } from '@/lib/server/http';
+import { ApiError, apiHandler, json, notFound, parseJsonBody, type RouteCtx, readParams } from '@/lib/server/http';
 import { MAX_SECTION_BODY_BYTES, saveRevisionSchema } from '@/lib/validations/section';
 
 export const dynamic = 'force-dynamic';
@@ -8,7 +8,7 @@ type Ctx = RouteCtx<{ workspaceId: string; sectionId: string }>;
 
 /** The section's revisions, newest first (without content). */
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
-  const { workspaceId, sectionId } = await ctx.params;
+  const { workspaceId, sectionId } = await readParams(ctx);
   await requireWorkspaceRole(workspaceId, 'viewer');
   if (!(await getSectionRow(workspaceId, sectionId))) throw notFound('The section');
   return json({ revisions: await listRevisions(workspaceId, sectionId) });
@@ -19,7 +19,7 @@ export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
  * (someone saved in between) or the section is deleted. Atomic: a failed save writes nothing.
  */
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId, sectionId } = await ctx.params;
+  const { workspaceId, sectionId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const body = await parseJsonBody(req, saveRevisionSchema, { maxBytes: MAX_SECTION_BODY_BYTES });
   const out = await insertRevision({

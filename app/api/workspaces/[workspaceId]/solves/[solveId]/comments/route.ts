@@ -5,7 +5,7 @@
 import { getSolve } from '@/db/queries/solves';
 import { insertComment, listComments } from '@/db/queries/comments';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { apiHandler, json, notFound, parseJsonBody, type RouteCtx } from '@/lib/server/http';
+import { apiHandler, json, notFound, parseJsonBody, type RouteCtx, readParams } from '@/lib/server/http';
 import { createCommentSchema } from '@/lib/validations/comment';
 
 export const dynamic = 'force-dynamic';
@@ -14,7 +14,7 @@ type Ctx = RouteCtx<{ workspaceId: string; solveId: string }>;
 const MAX_COMMENT_BODY_BYTES = 32 * 1024;
 
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
-  const { workspaceId, solveId } = await ctx.params;
+  const { workspaceId, solveId } = await readParams(ctx);
   await requireWorkspaceRole(workspaceId, 'viewer');
   const solve = await getSolve(workspaceId, solveId);
   if (!solve) throw notFound('The solve');
@@ -22,7 +22,7 @@ export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
 });
 
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId, solveId } = await ctx.params;
+  const { workspaceId, solveId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'viewer');
   const body = await parseJsonBody(req, createCommentSchema, { maxBytes: MAX_COMMENT_BODY_BYTES });
   const comment = await insertComment({ workspaceId, solveId, authorId: user.id, body: body.body });

@@ -7,7 +7,7 @@
  */
 import { getSolve, getSolveField, setSolveField } from '@/db/queries/solves';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { ApiError, apiHandler, json, notFound, readBodyBytes, type RouteCtx } from '@/lib/server/http';
+import { ApiError, apiHandler, json, notFound, readBodyBytes, type RouteCtx, readParams } from '@/lib/server/http';
 import { decodeFieldBlob, FieldBlobError } from '@/lib/field/codec';
 
 export const dynamic = 'force-dynamic';
@@ -17,7 +17,7 @@ type Ctx = RouteCtx<{ workspaceId: string; solveId: string }>;
 const MAX_FIELD_UPLOAD_BYTES = 32 * 1024 * 1024;
 
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
-  const { workspaceId, solveId } = await ctx.params;
+  const { workspaceId, solveId } = await readParams(ctx);
   await requireWorkspaceRole(workspaceId, 'viewer');
   const field = await getSolveField(workspaceId, solveId);
   if (field === undefined) throw notFound('The solve');
@@ -34,7 +34,7 @@ export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
 });
 
 export const PUT = apiHandler(async (req: Request, ctx: Ctx) => {
-  const { workspaceId, solveId } = await ctx.params;
+  const { workspaceId, solveId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const solve = await getSolve(workspaceId, solveId);
   if (!solve) throw notFound('The solve');
