@@ -1,23 +1,79 @@
 /**
- * Sparse solver of the 5-point operator (temporary first version: Jacobi-preconditioned CG;
- * the multigrid preconditioner replaces it under the same API).
+ * Multigrid-preconditioned conjugate gradients for the symmetric 5-point operator (Operator5).
+ *
+ * Method (black-box multigrid as a CG preconditioner):
+ * - Coarsening: standard (factor 2 in x and y) on the tensor grid, coarse nodes at even (i, j);
+ *   any nx, ny ≥ 2 (odd or even). Coarsening stops when a side has ≤ 4 nodes or the grid has
+ *   ≤ `coarsestNodes` nodes; the coarsest system is solved exactly by banded Cholesky.
+ * - Transfers: operator-dependent interpolation (Alcouffe, Brandt, Dendy & Painter 1981;
+ *   Dendy 1982), restriction = its transpose; coarse operators are Galerkin Pᵀ A P (9-point).
+ *   See ./multigrid-transfer.
+ * - Smoother: alternating zebra line Gauss–Seidel (x-lines then y-lines), exact tridiagonal
+ *   line solves, robust for stretched cells in either direction (Trottenberg, Oosterlee &
+ *   Schüller 2001, ch. 5). The post-smoother runs the same line steps in reverse order, so the
+ *   V-cycle is a symmetric positive definite preconditioner. See ./smoothers.
+ * - Fixed (Dirichlet) nodes are decoupled identity rows: they are set to rhs/c at the start
+ *   and stay exact through the whole hierarchy (interpolation weights towards them are zero).
+ *
+ * All buffers are allocated in setupHierarchy; solve allocates only its result. The hierarchy
+ * is plain data (typed arrays and numbers), usable from a Web Worker or from Node.
  */
 import type { IterativeSolveOptions, IterativeSolveResult, Operator5 } from './types';
 import { SolveCancelledError } from './types';
-import { applyOperatorKernel } from './operator';
+import { factorLines, sweepColumns, sweepRows, type SweepLevel } from './smoothers';
+import {
+  buildTransfer,
+  galerkin,
+  interpolateAddEven,
+  padFor,
+  residualRestrictEven,
+  type Stencil9,
+  type Transfer,
+} from './multigrid-transfer';
 
 export interface HierarchyOptions {
-  /** Reserved. @default undefined */
-  reserved?: never;
+  /** Largest number of grid levels (1 = no coarsening: exact banded solve of the whole grid). @default 40 */
+  maxLevels?: number;
+  /** Stop coarsening when a level has at most this many nodes. @default 64 */
+  coarsestNodes?: number;
+  /** Alternating line sweeps before and after each coarse-grid correction. @default 1 */
+  sweeps?: number;
+}
+
+/** One grid level: its operator, line factors and padded work vectors (see SweepLevel). */
+export interface MgLevel extends SweepLevel {
+  size: number;
+}
+
+/** Banded Cholesky factor of the coarsest operator (band index m ↔ grid node perm[m]). */
+export interface BandCholesky {
+  size: number;
+  bw: number;
+  perm: Int32Array;
+  /** L(m, m−d) at m*(bw+1)+d. */
+  L: Float64Array;
+  invDiag: Float64Array;
+  y: Float64Array;
 }
 
 export interface Hierarchy {
+  nx: number;
+  ny: number;
+  /** The fine operator as passed in (not copied). */
   op: Operator5;
-  invDiag: Float64Array;
-  r: Float64Array;
-  z: Float64Array;
-  p: Float64Array;
-  q: Float64Array;
+  levels: MgLevel[];
+  /** transfers[l] connects levels[l] (fine) and levels[l+1] (coarse). */
+  transfers: Transfer[];
+  coarse: BandCholesky;
+  sweeps: number;
+  /** Decoupled nodes (all couplings zero): x = rhs / c there. */
+  fixed: Int32Array;
+  /** CG vectors, padded like level 0 (its b is the CG residual, its x the preconditioned residual). */
+  xp: Float64Array;
+  pp: Float64Array;
+  qp: Float64Array;
+  /** Number of nodes on all levels divided by the fine size (grid complexity). */
+  gridComplexity: number;
 }
 
 function checkOperator(op: Operator5): void {
@@ -32,79 +88,316 @@ function checkOperator(op: Operator5): void {
       throw new RangeError(`operator array ${key} must be a Float64Array of length nx*ny = ${size}`);
     }
   }
+  const { c, w, e, s, n } = op;
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = j * nx + i;
+      if (!(c[k] > 0) || !Number.isFinite(c[k])) throw new RangeError(`operator diagonal c must be positive and finite (node i=${i}, j=${j})`);
+      if (!(w[k] >= 0 && e[k] >= 0 && s[k] >= 0 && n[k] >= 0) || !Number.isFinite(w[k] + e[k] + s[k] + n[k])) {
+        throw new RangeError(`operator couplings must be finite and >= 0 (node i=${i}, j=${j})`);
+      }
+      if ((i === 0 && w[k] !== 0) || (i === nx - 1 && e[k] !== 0) || (j === 0 && s[k] !== 0) || (j === ny - 1 && n[k] !== 0)) {
+        throw new RangeError(`operator couplings leaving the grid must be 0 (node i=${i}, j=${j})`);
+      }
+      if (i > 0 && Math.abs(w[k] - e[k - 1]) > 1e-12 * Math.max(w[k], e[k - 1])) {
+        throw new RangeError(`operator must be symmetric: w at (i=${i}, j=${j}) differs from e of its west neighbour`);
+      }
+      if (j > 0 && Math.abs(s[k] - n[k - nx]) > 1e-12 * Math.max(s[k], n[k - nx])) {
+        throw new RangeError(`operator must be symmetric: s at (i=${i}, j=${j}) differs from n of its south neighbour`);
+      }
+    }
+  }
 }
 
-export function setupHierarchy(op: Operator5, _opts: HierarchyOptions = {}): Hierarchy {
-  checkOperator(op);
-  const size = op.nx * op.ny;
-  const invDiag = new Float64Array(size);
-  for (let k = 0; k < size; k++) {
-    if (!(op.c[k] > 0)) throw new RangeError(`operator diagonal must be positive (node ${k})`);
-    invDiag[k] = 1 / op.c[k];
+/** Padded symmetric-half storage of a level plus its line factors and work vectors. */
+function makeLevel(A: Stencil9): MgLevel {
+  const { nx, ny } = A;
+  const size = nx * ny;
+  const off = padFor(nx);
+  const len = size + 2 * off;
+  const pad = (a: Float64Array): Float64Array => {
+    const p = new Float64Array(len);
+    p.set(a, off);
+    return p;
+  };
+  const lv: MgLevel = {
+    nx, ny, size, off,
+    c: pad(A.c), w: pad(A.w), s: pad(A.s),
+    sw: A.sw === null ? null : pad(A.sw),
+    se: A.se === null ? null : pad(A.se),
+    xInv: new Float64Array(len), xU: new Float64Array(len),
+    yInv: new Float64Array(len), yU: new Float64Array(len),
+    x: new Float64Array(len), b: new Float64Array(len),
+  };
+  factorLines(lv);
+  return lv;
+}
+
+/** Banded Cholesky of a level's (symmetric) stencil, ordered along the shorter side. */
+function factorBand(A: Stencil9): BandCholesky {
+  const { nx, ny, c, w, s } = A;
+  const size = nx * ny;
+  const alongX = nx <= ny;
+  const bw = (alongX ? nx : ny) + 1;
+  const perm = new Int32Array(size);
+  const pos = new Int32Array(size);
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = j * nx + i;
+      const m = alongX ? k : i * ny + j;
+      perm[m] = k;
+      pos[k] = m;
+    }
   }
+  const W = bw + 1;
+  const L = new Float64Array(size * W);
+  // lower-triangle entries A(m, q), q < m: minus the coupling between the two nodes
+  const put = (k: number, nb: number, coupling: number) => {
+    const m = pos[k], q = pos[nb];
+    if (q < m) L[m * W + (m - q)] = -coupling;
+    else L[q * W + (q - m)] = -coupling;
+  };
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = j * nx + i;
+      L[pos[k] * W] = c[k];
+      if (i > 0) put(k, k - 1, w[k]);
+      if (j > 0) put(k, k - nx, s[k]);
+      if (A.sw !== null && i > 0 && j > 0) put(k, k - nx - 1, A.sw[k]);
+      if (A.se !== null && i < nx - 1 && j > 0) put(k, k - nx + 1, A.se[k]);
+    }
+  }
+  const invDiag = new Float64Array(size);
+  for (let m = 0; m < size; m++) {
+    const lo = Math.max(0, m - bw);
+    for (let q = lo; q <= m; q++) {
+      let v = L[m * W + (m - q)];
+      const tlo = Math.max(lo, q - bw);
+      for (let t = tlo; t < q; t++) v -= L[m * W + (m - t)] * L[q * W + (q - t)];
+      if (q < m) {
+        L[m * W + (m - q)] = v * invDiag[q];
+      } else {
+        const diag = c[perm[m]];
+        if (v > 1e-13 * diag) {
+          const d = Math.sqrt(v);
+          L[m * W] = d;
+          invDiag[m] = 1 / d;
+        } else {
+          L[m * W] = 0;
+          invDiag[m] = 0; // singular direction (no reference): dropped
+        }
+      }
+    }
+  }
+  return { size, bw, perm, L, invDiag, y: new Float64Array(size) };
+}
+
+/** Exact solve on the coarsest level: writes lv.x (inside the grid) from lv.b; uses ch.y. */
+function coarseSolve(ch: BandCholesky, lv: MgLevel): void {
+  const { size, bw, perm, L, invDiag, y } = ch;
+  const W = bw + 1;
+  const { x, b, off } = lv;
+  for (let m = 0; m < size; m++) {
+    let v = b[perm[m] + off];
+    const lo = Math.max(0, m - bw);
+    const row = m * W + m;
+    for (let t = lo; t < m; t++) v -= L[row - t] * y[t];
+    y[m] = v * invDiag[m];
+  }
+  for (let m = size - 1; m >= 0; m--) {
+    let v = y[m];
+    const hi = Math.min(size - 1, m + bw);
+    for (let q = m + 1; q <= hi; q++) v -= L[q * W + (q - m)] * y[q];
+    y[m] = v * invDiag[m];
+    x[perm[m] + off] = y[m];
+  }
+}
+
+/**
+ * Builds the multigrid hierarchy of a symmetric 5-point operator once per geometry:
+ * interpolation weights, Galerkin coarse operators, line factors, the coarsest factor and
+ * every work buffer. Throws RangeError on invalid sizes, array lengths or coefficients.
+ * Does not copy or modify `op`; keep it unchanged while the hierarchy is in use.
+ */
+export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hierarchy {
+  const {
+    /** @default 40 */ maxLevels = 40,
+    /** @default 64 */ coarsestNodes = 64,
+    /** @default 1 */ sweeps = 1,
+  } = opts;
+  if (!Number.isInteger(maxLevels) || maxLevels < 1) throw new RangeError('maxLevels must be an integer >= 1');
+  if (!Number.isInteger(sweeps) || sweeps < 1) throw new RangeError('sweeps must be an integer >= 1');
+  if (!(coarsestNodes >= 1)) throw new RangeError('coarsestNodes must be >= 1');
+  checkOperator(op);
+  const { nx, ny } = op;
+  const size = nx * ny;
+  let A: Stencil9 = { nx, ny, c: op.c, w: op.w, e: op.e, s: op.s, n: op.n, sw: null, se: null, nw: null, ne: null };
+  const levels: MgLevel[] = [makeLevel(A)];
+  const transfers: Transfer[] = [];
+  let nodes = size;
+  while (levels.length < maxLevels && Math.min(A.nx, A.ny) >= 5 && A.nx * A.ny > coarsestNodes) {
+    const t = buildTransfer(A, levels[levels.length - 1].off);
+    A = galerkin(A, t);
+    transfers.push(t);
+    levels.push(makeLevel(A));
+    nodes += A.nx * A.ny;
+  }
+  const coarse = factorBand(A);
+  const fixedList: number[] = [];
+  for (let k = 0; k < size; k++) {
+    if (op.w[k] === 0 && op.e[k] === 0 && op.s[k] === 0 && op.n[k] === 0) fixedList.push(k);
+  }
+  const padLen = size + 2 * levels[0].off;
   return {
-    op,
-    invDiag,
-    r: new Float64Array(size),
-    z: new Float64Array(size),
-    p: new Float64Array(size),
-    q: new Float64Array(size),
+    nx, ny, op, levels, transfers, coarse, sweeps,
+    fixed: Int32Array.from(fixedList),
+    xp: new Float64Array(padLen),
+    pp: new Float64Array(padLen),
+    qp: new Float64Array(padLen),
+    gridComplexity: nodes / size,
   };
 }
 
-function dot(a: Float64Array, b: Float64Array): number {
-  let s = 0;
-  for (let k = 0; k < a.length; k++) s += a[k] * b[k];
-  return s;
+/**
+ * One symmetric V-cycle with zero initial guess: levels[0].x ≈ A⁻¹ levels[0].b.
+ * Writes x, r of every level and b of the coarse levels.
+ */
+export function applyPreconditioner(h: Hierarchy): void {
+  const { levels, transfers, sweeps } = h;
+  const last = levels.length - 1;
+  for (let l = 0; l < last; l++) {
+    const lv = levels[l];
+    for (let v = 0; v < sweeps; v++) {
+      sweepRows(lv, 0, v === 0);
+      sweepRows(lv, 1, false);
+      sweepColumns(lv, 0);
+      sweepColumns(lv, 1);
+    }
+    // the last step solved the odd columns exactly: their residual is zero
+    residualRestrictEven(lv, transfers[l], levels[l + 1].b);
+  }
+  coarseSolve(h.coarse, levels[last]);
+  for (let l = last - 1; l >= 0; l--) {
+    const lv = levels[l];
+    // the first step re-solves the odd columns, so only the even ones take the correction
+    interpolateAddEven(transfers[l], levels[l + 1].x, lv.x);
+    for (let v = 0; v < sweeps; v++) {
+      sweepColumns(lv, 1);
+      sweepColumns(lv, 0);
+      sweepRows(lv, 1, false);
+      sweepRows(lv, 0, false);
+    }
+  }
 }
 
+/** out = A x on level 0's padded storage; returns x·out. Writes out inside the grid. */
+function matvecDot(lv: MgLevel, x: Float64Array, out: Float64Array): number {
+  const { nx, off, size, c, w, s } = lv;
+  let d = 0;
+  for (let kk = off; kk < off + size; kk++) {
+    const xk = x[kk];
+    const v = c[kk] * xk - w[kk] * x[kk - 1] - w[kk + 1] * x[kk + 1] - s[kk] * x[kk - nx] - s[kk + nx] * x[kk + nx];
+    out[kk] = v;
+    d += xk * v;
+  }
+  return d;
+}
+
+/**
+ * Solves A x = rhs by multigrid-preconditioned CG. Tolerance is relative to ‖rhs‖ (absolute
+ * when rhs = 0); convergence is confirmed on the true residual b − A x. Calls onIteration after
+ * each iteration (returning false stops), checks isCancelled between iterations and then throws
+ * SolveCancelledError. Returns a new x; the hierarchy's buffers are overwritten.
+ */
 export function solve(
   h: Hierarchy,
   rhs: Float64Array,
   opts: IterativeSolveOptions & { x0?: Float64Array } = {},
 ): IterativeSolveResult {
-  const { tolerance = 1e-10, maxIterations = 200, onIteration, isCancelled, x0 } = opts;
-  const { op, invDiag, r, z, p, q } = h;
-  const { nx, ny, c, w, e, s, n } = op;
-  const size = nx * ny;
-  if (rhs.length !== size) throw new RangeError(`rhs must have length ${size}`);
-  if (x0 && x0.length !== size) throw new RangeError(`x0 must have length ${size}`);
-  const x = x0 ? Float64Array.from(x0) : new Float64Array(size);
-  const bnorm = Math.sqrt(dot(rhs, rhs));
-  const scale = bnorm > 0 ? bnorm : 1;
-  applyOperatorKernel(nx, ny, c, w, e, s, n, x, q);
-  for (let k = 0; k < size; k++) r[k] = rhs[k] - q[k];
-  let rel = Math.sqrt(dot(r, r)) / scale;
-  const residualNorms = [rel];
+  const {
+    /** @default 1e-10 */ tolerance = 1e-10,
+    /** @default 200 */ maxIterations = 200,
+    onIteration,
+    isCancelled,
+    x0,
+  } = opts;
+  const { op, xp, pp, qp, fixed } = h;
+  const lv0 = h.levels[0];
+  const off = lv0.off;
+  const rp = lv0.b;
+  const zp = lv0.x;
+  const size = h.nx * h.ny;
+  if (!(rhs instanceof Float64Array) || rhs.length !== size) throw new RangeError(`rhs must be a Float64Array of length ${size}`);
+  if (x0 !== undefined && (!(x0 instanceof Float64Array) || x0.length !== size)) throw new RangeError(`x0 must be a Float64Array of length ${size}`);
+  if (!(tolerance >= 0)) throw new RangeError('tolerance must be >= 0');
+  if (!Number.isInteger(maxIterations) || maxIterations < 0) throw new RangeError('maxIterations must be an integer >= 0');
+
+  xp.fill(0);
+  if (x0 !== undefined) xp.set(x0, off);
+  for (let q = 0; q < fixed.length; q++) {
+    const k = fixed[q];
+    xp[k + off] = rhs[k] / op.c[k];
+  }
+  let bb = 0;
+  for (let k = 0; k < size; k++) bb += rhs[k] * rhs[k];
+  const scale = bb > 0 ? Math.sqrt(bb) : 1;
+
+  // r = b − A x
+  const trueResidual = (): number => {
+    matvecDot(lv0, xp, qp);
+    let rr = 0;
+    for (let k = 0; k < size; k++) {
+      const kk = k + off;
+      const v = rhs[k] - qp[kk];
+      rp[kk] = v;
+      rr += v * v;
+    }
+    return Math.sqrt(rr) / scale;
+  };
+  const norms = new Float64Array(maxIterations + 1);
+  let rel = trueResidual();
+  norms[0] = rel;
   const rel0 = rel;
   let it = 0;
-  if (rel <= tolerance) return { x, converged: true, iterations: 0, residualNorms, convergenceFactor: 0 };
-  for (let k = 0; k < size; k++) z[k] = invDiag[k] * r[k];
-  p.set(z);
-  let rz = dot(r, z);
-  let converged = false;
-  while (it < maxIterations) {
-    if (isCancelled && isCancelled()) throw new SolveCancelledError();
-    applyOperatorKernel(nx, ny, c, w, e, s, n, p, q);
-    const alpha = rz / dot(p, q);
-    for (let k = 0; k < size; k++) {
-      x[k] += alpha * p[k];
-      r[k] -= alpha * q[k];
+  let converged = rel <= tolerance;
+  let rz = 0;
+  let restart = true;
+  while (!converged && it < maxIterations) {
+    if (isCancelled !== undefined && isCancelled()) throw new SolveCancelledError();
+    applyPreconditioner(h);
+    let rzNew = 0;
+    for (let k = off; k < off + size; k++) rzNew += rp[k] * zp[k];
+    if (restart) {
+      for (let k = off; k < off + size; k++) pp[k] = zp[k];
+      restart = false;
+    } else {
+      const beta = rzNew / rz;
+      for (let k = off; k < off + size; k++) pp[k] = zp[k] + beta * pp[k];
+    }
+    rz = rzNew;
+    const pAp = matvecDot(lv0, pp, qp);
+    if (!(pAp > 0)) break; // breakdown: the residual is zero to round-off or A is singular here
+    const alpha = rz / pAp;
+    let rr = 0;
+    for (let k = off; k < off + size; k++) {
+      xp[k] += alpha * pp[k];
+      const v = rp[k] - alpha * qp[k];
+      rp[k] = v;
+      rr += v * v;
     }
     it++;
-    rel = Math.sqrt(dot(r, r)) / scale;
-    residualNorms.push(rel);
-    if (onIteration && onIteration(it, rel) === false) break;
+    rel = Math.sqrt(rr) / scale;
     if (rel <= tolerance) {
-      converged = true;
-      break;
+      // confirm on the true residual; continue (restarted) if round-off has drifted
+      rel = trueResidual();
+      if (rel <= tolerance) converged = true;
+      else restart = true;
     }
-    for (let k = 0; k < size; k++) z[k] = invDiag[k] * r[k];
-    const rzNew = dot(r, z);
-    const beta = rzNew / rz;
-    rz = rzNew;
-    for (let k = 0; k < size; k++) p[k] = z[k] + beta * p[k];
+    norms[it] = rel;
+    if (onIteration !== undefined && onIteration(it, rel) === false) break;
   }
+  const x = xp.slice(off, off + size);
+  const residualNorms = Array.from(norms.subarray(0, it + 1));
   const convergenceFactor = it > 0 && rel0 > 0 ? Math.pow(rel / rel0, 1 / it) : 0;
   return { x, converged, iterations: it, residualNorms, convergenceFactor };
 }

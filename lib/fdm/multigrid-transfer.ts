@@ -1,0 +1,343 @@
+/**
+ * Operator-dependent transfers and Galerkin coarse operators of the black-box multigrid
+ * (Alcouffe, Brandt, Dendy & Painter 1981; Dendy 1982): coarse nodes are the fine nodes with
+ * even i and even j; every other fine node is interpolated from the fine stencil collapsed
+ * along the line through it, so interpolation follows dielectric jumps and stops at fixed
+ * (Dirichlet) nodes. Restriction is the transpose of interpolation and the coarse operator is
+ * Pᵀ A P (9-point), so the cycle stays symmetric.
+ *
+ * Weight arrays live on the coarse grid, padded like the coarse vectors (offset `off`):
+ *   pxW[K], pxE[K]  weights of fine (2I+1, 2J) to coarse (I, J) and (I+1, J)
+ *   pyS[K], pyN[K]  weights of fine (2I, 2J+1) to coarse (I, J) and (I, J+1)
+ *   pcSW, pcSE, pcNW, pcNE[K]  weights of fine (2I+1, 2J+1) to coarse (I,J), (I+1,J), (I,J+1), (I+1,J+1)
+ * with K = J*ncx + I + off. Weights of missing fine nodes and to missing coarse nodes are 0.
+ */
+import type { SweepLevel } from './smoothers';
+
+/** A 9-point stencil on an nx × ny grid (unpadded arrays; diagonals null for a 5-point one). */
+export interface Stencil9 {
+  nx: number;
+  ny: number;
+  c: Float64Array;
+  w: Float64Array;
+  e: Float64Array;
+  s: Float64Array;
+  n: Float64Array;
+  sw: Float64Array | null;
+  se: Float64Array | null;
+  nw: Float64Array | null;
+  ne: Float64Array | null;
+}
+
+export interface Transfer {
+  /** Fine grid size. */
+  nx: number;
+  ny: number;
+  fineOff: number;
+  /** Coarse grid size. */
+  ncx: number;
+  ncy: number;
+  off: number;
+  pxW: Float64Array;
+  pxE: Float64Array;
+  pyS: Float64Array;
+  pyN: Float64Array;
+  pcSW: Float64Array;
+  pcSE: Float64Array;
+  pcNW: Float64Array;
+  pcNE: Float64Array;
+}
+
+/** Number of coarse nodes along a line of m fine nodes (the even ones). */
+export function coarseCount(m: number): number {
+  return (m + 1) >> 1;
+}
+
+/** Padding of vectors on an nx-wide grid (one row and a little more on each side). */
+export function padFor(nx: number): number {
+  return nx + 2;
+}
+
+/** Builds the interpolation weights from the fine stencil. Allocates the Transfer. */
+export function buildTransfer(A: Stencil9, fineOff: number): Transfer {
+  const { nx, ny, c, w, e, s, n } = A;
+  const ncx = coarseCount(nx), ncy = coarseCount(ny);
+  const off = padFor(ncx);
+  const len = ncx * ncy + 2 * off;
+  const t: Transfer = {
+    nx, ny, fineOff, ncx, ncy, off,
+    pxW: new Float64Array(len), pxE: new Float64Array(len),
+    pyS: new Float64Array(len), pyN: new Float64Array(len),
+    pcSW: new Float64Array(len), pcSE: new Float64Array(len),
+    pcNW: new Float64Array(len), pcNE: new Float64Array(len),
+  };
+  const d9 = (a: Float64Array | null, k: number) => (a === null ? 0 : a[k]);
+  const { sw, se, nw, ne } = A;
+  // edge-type fine nodes
+  for (let J = 0; J < ncy; J++) {
+    for (let I = 0; I < ncx; I++) {
+      const K = J * ncx + I + off;
+      // x-type: fine (2I+1, 2J)
+      if (2 * I + 1 < nx) {
+        const k = 2 * J * nx + 2 * I + 1;
+        const aW = w[k] + d9(sw, k) + d9(nw, k);
+        const aE = I + 1 < ncx ? e[k] + d9(se, k) + d9(ne, k) : 0;
+        let den = c[k] - s[k] - n[k];
+        if (!(den >= aW + aE)) den = aW + aE;
+        if (den > 0) {
+          t.pxW[K] = Math.max(aW, 0) / den;
+          t.pxE[K] = Math.max(aE, 0) / den;
+        }
+      }
+      // y-type: fine (2I, 2J+1)
+      if (2 * J + 1 < ny) {
+        const k = (2 * J + 1) * nx + 2 * I;
+        const aS = s[k] + d9(sw, k) + d9(se, k);
+        const aN = J + 1 < ncy ? n[k] + d9(nw, k) + d9(ne, k) : 0;
+        let den = c[k] - w[k] - e[k];
+        if (!(den >= aS + aN)) den = aS + aN;
+        if (den > 0) {
+          t.pyS[K] = Math.max(aS, 0) / den;
+          t.pyN[K] = Math.max(aN, 0) / den;
+        }
+      }
+    }
+  }
+  // centre-type fine nodes (2I+1, 2J+1): the full stencil with the edge interpolation substituted
+  const { pxW, pxE, pyS, pyN } = t;
+  for (let J = 0; J < ncy; J++) {
+    if (2 * J + 1 >= ny) continue;
+    for (let I = 0; I < ncx; I++) {
+      if (2 * I + 1 >= nx) continue;
+      const K = J * ncx + I + off;
+      const k = (2 * J + 1) * nx + 2 * I + 1;
+      const cc = c[k];
+      if (!(cc > 0)) continue;
+      const hasE = I + 1 < ncx, hasN = J + 1 < ncy;
+      t.pcSW[K] = Math.max(d9(sw, k) + w[k] * pyS[K] + s[k] * pxW[K], 0) / cc;
+      if (hasE) t.pcSE[K] = Math.max(d9(se, k) + e[k] * pyS[K + 1] + s[k] * pxE[K], 0) / cc;
+      if (hasN) t.pcNW[K] = Math.max(d9(nw, k) + w[k] * pyN[K] + n[k] * pxW[K + ncx], 0) / cc;
+      if (hasE && hasN) t.pcNE[K] = Math.max(d9(ne, k) + e[k] * pyN[K + 1] + n[k] * pxE[K + ncx], 0) / cc;
+    }
+  }
+  return t;
+}
+
+/**
+ * Weight of coarse node (I, J) at fine node (2I+di, 2J+dj), di, dj ∈ {−1, 0, 1}.
+ * The caller makes sure both nodes exist.
+ */
+function weightAt(t: Transfer, I: number, J: number, di: number, dj: number): number {
+  const K = J * t.ncx + I + t.off;
+  const ncx = t.ncx;
+  if (dj === 0) {
+    if (di === 0) return 1;
+    return di > 0 ? t.pxW[K] : t.pxE[K - 1];
+  }
+  if (dj > 0) {
+    if (di === 0) return t.pyS[K];
+    return di > 0 ? t.pcSW[K] : t.pcSE[K - 1];
+  }
+  if (di === 0) return t.pyN[K - ncx];
+  return di > 0 ? t.pcNW[K - ncx] : t.pcNE[K - ncx - 1];
+}
+
+/**
+ * Galerkin coarse operator Pᵀ A P as a 9-point stencil on the coarse grid. Only the couplings
+ * to the east, north, north-east and north-west are computed and mirrored, so the result is
+ * exactly symmetric. Allocates the coarse stencil.
+ */
+export function galerkin(A: Stencil9, t: Transfer): Stencil9 {
+  const { nx, ny, c, w, e, s, n } = A;
+  const { ncx, ncy } = t;
+  const size = ncx * ncy;
+  const C: Stencil9 = {
+    nx: ncx, ny: ncy,
+    c: new Float64Array(size), w: new Float64Array(size), e: new Float64Array(size),
+    s: new Float64Array(size), n: new Float64Array(size),
+    sw: new Float64Array(size), se: new Float64Array(size),
+    nw: new Float64Array(size), ne: new Float64Array(size),
+  };
+  const sw = A.sw, se = A.se, nw = A.nw, ne = A.ne;
+  // phi on a 7×7 local patch (5×5 window plus a zero border); local (li, lj) ∈ −1..5 ↦ (lj+1)*7 + li+1,
+  // window position (li, lj) ∈ 0..4 ↔ fine (2I−2+li, 2J−2+lj)
+  const phi = new Float64Array(49);
+  const aphi = new Float64Array(25);
+  const nbI = [0, 1, 0, 1, -1];
+  const nbJ = [0, 0, 1, 1, 1];
+  for (let J = 0; J < ncy; J++) {
+    for (let I = 0; I < ncx; I++) {
+      const fi0 = 2 * I - 2, fj0 = 2 * J - 2;
+      phi.fill(0);
+      for (let dj = -1; dj <= 1; dj++) {
+        const fj = 2 * J + dj;
+        if (fj < 0 || fj >= ny) continue;
+        for (let di = -1; di <= 1; di++) {
+          const fi = 2 * I + di;
+          if (fi < 0 || fi >= nx) continue;
+          phi[(dj + 3) * 7 + di + 3] = weightAt(t, I, J, di, dj);
+        }
+      }
+      // A phi on the 5×5 window
+      for (let lj = 0; lj < 5; lj++) {
+        const fj = fj0 + lj;
+        for (let li = 0; li < 5; li++) {
+          const fi = fi0 + li;
+          const a = lj * 5 + li;
+          if (fi < 0 || fi >= nx || fj < 0 || fj >= ny) {
+            aphi[a] = 0;
+            continue;
+          }
+          const k = fj * nx + fi;
+          const p = (lj + 1) * 7 + li + 1;
+          let v = c[k] * phi[p] - w[k] * phi[p - 1] - e[k] * phi[p + 1] - s[k] * phi[p - 7] - n[k] * phi[p + 7];
+          if (sw !== null) {
+            v -= sw[k] * phi[p - 8] + (se as Float64Array)[k] * phi[p - 6] + (nw as Float64Array)[k] * phi[p + 6] + (ne as Float64Array)[k] * phi[p + 8];
+          }
+          aphi[a] = v;
+        }
+      }
+      const K = J * ncx + I;
+      for (let q = 0; q < 5; q++) {
+        const I2 = I + nbI[q], J2 = J + nbJ[q];
+        if (I2 < 0 || I2 >= ncx || J2 >= ncy) continue;
+        let val = 0;
+        for (let dj = -1; dj <= 1; dj++) {
+          const fj = 2 * J2 + dj;
+          const lj = fj - fj0;
+          if (fj < 0 || fj >= ny || lj < 0 || lj > 4) continue;
+          for (let di = -1; di <= 1; di++) {
+            const fi = 2 * I2 + di;
+            const li = fi - fi0;
+            if (fi < 0 || fi >= nx || li < 0 || li > 4) continue;
+            const a = aphi[lj * 5 + li];
+            if (a !== 0) val += weightAt(t, I2, J2, di, dj) * a;
+          }
+        }
+        switch (q) {
+          case 0:
+            C.c[K] = val;
+            break;
+          case 1:
+            C.e[K] = -val;
+            C.w[K + 1] = -val;
+            break;
+          case 2:
+            C.n[K] = -val;
+            C.s[K + ncx] = -val;
+            break;
+          case 3:
+            (C.ne as Float64Array)[K] = -val;
+            (C.sw as Float64Array)[K + ncx + 1] = -val;
+            break;
+          default:
+            (C.nw as Float64Array)[K] = -val;
+            (C.se as Float64Array)[K + ncx - 1] = -val;
+        }
+      }
+    }
+  }
+  return C;
+}
+
+/**
+ * Restriction bc = Pᵀ rf (padded vectors; rf's margins are zero). Writes bc inside the coarse grid.
+ */
+export function restrict(t: Transfer, rf: Float64Array, bc: Float64Array): void {
+  const { nx, ncx, ncy, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
+  for (let J = 0; J < ncy; J++) {
+    let K = J * ncx + off;
+    let f = 2 * J * nx + fineOff;
+    for (let I = 0; I < ncx; I++, K++, f += 2) {
+      bc[K] =
+        rf[f] +
+        pxW[K] * rf[f + 1] +
+        pxE[K - 1] * rf[f - 1] +
+        pyS[K] * rf[f + nx] +
+        pyN[K - ncx] * rf[f - nx] +
+        pcSW[K] * rf[f + nx + 1] +
+        pcSE[K - 1] * rf[f + nx - 1] +
+        pcNW[K - ncx] * rf[f - nx + 1] +
+        pcNE[K - ncx - 1] * rf[f - nx - 1];
+    }
+  }
+}
+
+/** Interpolation xf += P xc (padded vectors; xc's margins are zero). Writes xf inside the fine grid. */
+export function interpolateAdd(t: Transfer, xc: Float64Array, xf: Float64Array): void {
+  const { nx, ny, ncx, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
+  const nxEven = nx & ~1; // fine columns 0..nxEven-1 come in (even, odd) pairs
+  for (let j = 0; j < ny; j++) {
+    const J = j >> 1;
+    const Kr = J * ncx + off;
+    const fr = j * nx + fineOff;
+    if ((j & 1) === 0) {
+      let K = Kr;
+      for (let i = 0; i < nxEven; i += 2, K++) {
+        const v = xc[K];
+        xf[fr + i] += v;
+        xf[fr + i + 1] += pxW[K] * v + pxE[K] * xc[K + 1];
+      }
+      if (nx & 1) xf[fr + nx - 1] += xc[K];
+    } else {
+      let K = Kr;
+      for (let i = 0; i < nxEven; i += 2, K++) {
+        xf[fr + i] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
+        xf[fr + i + 1] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+      }
+      if (nx & 1) xf[fr + nx - 1] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
+    }
+  }
+}
+
+/**
+ * Fused residual and restriction for a cycle whose last pre-smoothing step solved the odd
+ * columns exactly: the residual there is zero, so bc = Pᵀ r needs r only on the even columns
+ * (weights 1, pyS, pyN). Computes r = b − A x on the even columns of the fine level `lv`
+ * (padded storage, see ./smoothers) and writes bc inside the coarse grid. Same result as a
+ * full residual followed by `restrict`, up to round-off.
+ */
+export function residualRestrictEven(lv: SweepLevel, t: Transfer, bc: Float64Array): void {
+  const { nx, ny, off: fo, c, w, s, x, b } = lv;
+  const { ncx, ncy, off, pyS, pyN } = t;
+  bc.fill(0, off, off + ncx * ncy);
+  const sw = lv.sw, se = lv.se as Float64Array;
+  for (let j = 0; j < ny; j++) {
+    const J = j >> 1;
+    const odd = (j & 1) === 1;
+    const top = J + 1 >= ncy;
+    let K = J * ncx + off;
+    const r0 = fo + j * nx;
+    for (let kk = r0; kk < r0 + nx; kk += 2, K++) {
+      let rv = b[kk] - c[kk] * x[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
+      if (sw !== null) {
+        rv += sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+      }
+      if (!odd) {
+        bc[K] += rv;
+      } else {
+        bc[K] += pyS[K] * rv;
+        if (!top) bc[K + ncx] += pyN[K] * rv;
+      }
+    }
+  }
+}
+
+/**
+ * Interpolation xf += P xc on the even columns only, for a cycle whose first post-smoothing
+ * step solves the odd columns exactly (their new values do not depend on the old ones, so the
+ * interpolated values there would be overwritten anyway). Writes xf on the even columns.
+ */
+export function interpolateAddEven(t: Transfer, xc: Float64Array, xf: Float64Array): void {
+  const { nx, ny, ncx, off, fineOff, pyS, pyN } = t;
+  for (let j = 0; j < ny; j++) {
+    let K = (j >> 1) * ncx + off;
+    const fr = j * nx + fineOff;
+    const end = fr + nx;
+    if ((j & 1) === 0) {
+      for (let f = fr; f < end; f += 2, K++) xf[f] += xc[K];
+    } else {
+      for (let f = fr; f < end; f += 2, K++) xf[f] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
+    }
+  }
+}

@@ -1,0 +1,156 @@
+/**
+ * Line relaxation kernels of the multigrid cycle: zebra (odd/even) line Gauss–Seidel along x
+ * (rows) and along y (columns), for the 5-point fine operator and the 9-point Galerkin coarse
+ * operators. Each line is solved exactly with the Thomas algorithm from factors computed once
+ * in set-up (factorLines).
+ *
+ * Storage (a "level"): every array is padded with `off` zero entries before and after the
+ * grid (off ≥ nx + 2) and node (i, j) sits at kk = off + j*nx + i. Only the lower half of the
+ * symmetric stencil is stored: c, w (to i−1), s (to j−1), sw (to i−1, j−1), se (to i+1, j−1);
+ * the other couplings are read from the neighbour (e_k = w_{k+1}, n_k = s_{k+nx},
+ * ne_k = sw_{k+nx+1}, nw_k = se_{k+nx−1}). Couplings that leave the grid are zero, so reads
+ * across the grid edge meet zeros or finite values times a zero coupling, and the inner loops
+ * need no edge tests.
+ *
+ * Sign convention (as Operator5): (A x)_k = c_k x_k − Σ coupling · x_neighbour, couplings ≥ 0.
+ */
+
+/** The arrays of one grid level (all padded, see above). */
+export interface SweepLevel {
+  nx: number;
+  ny: number;
+  /** Offset of node 0 in every array. */
+  off: number;
+  c: Float64Array;
+  w: Float64Array;
+  s: Float64Array;
+  /** Diagonal couplings (null on the 5-point fine level). */
+  sw: Float64Array | null;
+  se: Float64Array | null;
+  /** Thomas factors of the x-lines: 1/pivot and e/pivot. */
+  xInv: Float64Array;
+  xU: Float64Array;
+  /** Thomas factors of the y-lines: 1/pivot and n/pivot. */
+  yInv: Float64Array;
+  yU: Float64Array;
+  /** Work vectors: iterate (correction) and right-hand side. */
+  x: Float64Array;
+  b: Float64Array;
+}
+
+/**
+ * Thomas factors of the tridiagonal x-lines (−w, c, −e) and y-lines (−s, c, −n).
+ * Writes lv.xInv, lv.xU, lv.yInv, lv.yU (1/pivot is 0 where a pivot is not positive).
+ */
+export function factorLines(lv: SweepLevel): void {
+  const { nx, ny, off, c, w, s, xInv, xU, yInv, yU } = lv;
+  for (let j = 0; j < ny; j++) {
+    const r = off + j * nx;
+    let prevU = 0;
+    for (let kk = r; kk < r + nx; kk++) {
+      const d = c[kk] - w[kk] * prevU;
+      const iv = d > 0 ? 1 / d : 0;
+      xInv[kk] = iv;
+      prevU = w[kk + 1] * iv; // e_k = w_{k+1}; zero at the row end
+      xU[kk] = prevU;
+    }
+  }
+  for (let j = 0; j < ny; j++) {
+    const r = off + j * nx;
+    for (let kk = r; kk < r + nx; kk++) {
+      const d = c[kk] - s[kk] * yU[kk - nx];
+      const iv = d > 0 ? 1 / d : 0;
+      yInv[kk] = iv;
+      yU[kk] = s[kk + nx] * iv; // n_k = s_{k+nx}; zero on the top row
+    }
+  }
+}
+
+/**
+ * Zebra x-line Gauss–Seidel on rows j ≡ parity (mod 2): solves each such row exactly with the
+ * other rows held fixed. With `zeroGuess` the neighbouring rows are taken as zero (first sweep
+ * from a zero start; they are not read). Writes lv.x on those rows only.
+ */
+export function sweepRows(lv: SweepLevel, parity: number, zeroGuess: boolean): void {
+  const { nx, ny, off, w, s, xInv: inv, xU: u, x, b } = lv;
+  const sw = lv.sw, se = lv.se as Float64Array;
+  for (let j = parity; j < ny; j += 2) {
+    const r = off + j * nx;
+    const end = r + nx;
+    let g = 0;
+    if (zeroGuess) {
+      for (let kk = r; kk < end; kk++) {
+        g = (b[kk] + w[kk] * g) * inv[kk];
+        x[kk] = g;
+      }
+    } else if (sw === null) {
+      for (let kk = r; kk < end; kk++) {
+        g = (b[kk] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] + w[kk] * g) * inv[kk];
+        x[kk] = g;
+      }
+    } else {
+      for (let kk = r; kk < end; kk++) {
+        const f =
+          b[kk] +
+          s[kk] * x[kk - nx] +
+          s[kk + nx] * x[kk + nx] +
+          sw[kk] * x[kk - nx - 1] +
+          se[kk] * x[kk - nx + 1] +
+          se[kk + nx - 1] * x[kk + nx - 1] +
+          sw[kk + nx + 1] * x[kk + nx + 1];
+        g = (f + w[kk] * g) * inv[kk];
+        x[kk] = g;
+      }
+    }
+    for (let kk = end - 2; kk >= r; kk--) x[kk] += u[kk] * x[kk + 1];
+  }
+}
+
+/**
+ * Zebra y-line Gauss–Seidel on columns i ≡ parity (mod 2), all columns of that colour advanced
+ * together row by row (cache-friendly forward and back substitution). Writes lv.x on those
+ * columns only.
+ */
+export function sweepColumns(lv: SweepLevel, parity: number): void {
+  const { nx, ny, off, w, s, yInv: inv, yU: u, x, b } = lv;
+  const sw = lv.sw, se = lv.se as Float64Array;
+  // forward elimination; x holds the intermediate values of this colour's columns
+  for (let j = 0; j < ny; j++) {
+    const r = off + j * nx;
+    const end = r + nx;
+    if (sw === null) {
+      for (let kk = r + parity; kk < end; kk += 2) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx]) * inv[kk];
+      }
+    } else {
+      for (let kk = r + parity; kk < end; kk += 2) {
+        const f =
+          b[kk] +
+          w[kk] * x[kk - 1] +
+          w[kk + 1] * x[kk + 1] +
+          sw[kk] * x[kk - nx - 1] +
+          se[kk] * x[kk - nx + 1] +
+          se[kk + nx - 1] * x[kk + nx - 1] +
+          sw[kk + nx + 1] * x[kk + nx + 1];
+        x[kk] = (f + s[kk] * x[kk - nx]) * inv[kk];
+      }
+    }
+  }
+  // back substitution
+  for (let j = ny - 2; j >= 0; j--) {
+    const r = off + j * nx;
+    const end = r + nx;
+    for (let kk = r + parity; kk < end; kk += 2) x[kk] += u[kk] * x[kk + nx];
+  }
+}
+
+/** (b − A x) at padded index kk of the level. Reads only. */
+export function residualAt(lv: SweepLevel, kk: number): number {
+  const { nx, c, w, s, x, b } = lv;
+  let v = b[kk] - c[kk] * x[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
+  if (lv.sw !== null) {
+    const sw = lv.sw, se = lv.se as Float64Array;
+    v += sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+  }
+  return v;
+}
