@@ -120,7 +120,9 @@ export function buildMesh(input: MeshInput, p: MeshParams): { xs: Float64Array; 
   const gapX = (x: number) => localGap(xKeys, x) / p.mGap;
   const gapY = (y: number) => localGap(yKeys, y) / p.mGap;
   for (const q of points) {
-    const h = Math.min(q.h, gapX(q.x), gapY(q.y));
+    // corner spacing relative to the local feature scale (the nearest other key line)
+    const local = Math.min(1, localGap(xKeys, q.x), localGap(yKeys, q.y));
+    const h = Math.min(q.h * local, gapX(q.x), gapY(q.y));
     xLines.push({ at: q.x, h });
     yLines.push({ at: q.y, h });
   }
