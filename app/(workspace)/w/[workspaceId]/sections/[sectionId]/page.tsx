@@ -4,6 +4,7 @@ import { getSection } from '@/db/queries/sections';
 import { requireWorkspaceMember } from '@/lib/server/access';
 import { SectionHeader } from '../../_components/section-header';
 import { roleCanEdit, toPlain, type SectionDetail } from '../../_components/types';
+import { SectionEditorClient } from '@/components/canvas/section-editor-client';
 
 export const metadata: Metadata = { title: 'Section' };
 
@@ -25,15 +26,15 @@ export default async function SectionPage({ params }: { params: Promise<{ worksp
   return (
     <div className="flex min-h-0 flex-1 flex-col">
       <SectionHeader workspaceId={workspaceId} initial={header} canEdit={canEdit} />
-      {/* EDITOR: mount components/canvas/SectionEditor here (content, latestRevision.id, canEdit). */}
-      <div
-        data-testid="section-editor-slot"
-        data-has-content={content ? 'true' : 'false'}
-        className="flex min-h-[28rem] flex-1 items-center justify-center bg-[linear-gradient(var(--color-grey-100)_1px,transparent_1px),linear-gradient(90deg,var(--color-grey-100)_1px,transparent_1px)] bg-[size:24px_24px]"
-      >
-        <p className="rounded-md border border-line bg-surface px-4 py-3 text-sm text-ink-muted shadow-sm">
-          The drawing editor appears here.
-        </p>
+      {/* EDITOR: the drawing editor (components/canvas). */}
+      <div data-testid="section-editor-slot" data-has-content={content ? 'true' : 'false'} className="flex min-h-0 flex-1 flex-col p-3">
+        <SectionEditorClient
+          workspaceId={workspaceId}
+          sectionId={sectionId}
+          content={content}
+          revisionId={latestRevision?.id ?? null}
+          canEdit={canEdit}
+        />
       </div>
     </div>
   );
