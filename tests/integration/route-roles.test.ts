@@ -1,0 +1,239 @@
+/**
+ * Role checks for EVERY API route handler, generated from tests/integration/routes-table.ts.
+ * The exported GET/POST/... functions are called directly with a Request; the session is
+ * mocked (lib/server/session.ts) so each call runs as a chosen user. The database is a
+ * migrated in-memory PGlite (or DATABASE_URL's server).
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+
+vi.mock('server-only', () => ({}));
+const auth = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string } }));
+vi.mock('@/lib/server/session', () => ({
+  getSessionUser: async () => auth.user,
+  requireUser: async () => {
+    if (!auth.user) throw new Error('redirect /login');
+    return auth.user;
+  },
+}));
+
+import { setDbForTesting, type DbHandle } from '@/db/client';
+import { setSolveField } from '@/db/queries/solves';
+import { createTestDb } from './helpers/db';
+import { buildWorld, type Who, type World } from './helpers/fixtures';
+import { ROUTES, UNCHECKED_ROUTES, type Method, type Role, type RouteRow } from './routes-table';
+
+const API_DIR = path.resolve('app/api');
+const RANK: Record<Role, number> = { viewer: 1, editor: 2, owner: 3 };
+
+let handle: DbHandle;
+let w: World;
+const wasDemo = process.env.EDGEFIELD_DEMO;
+
+beforeAll(async () => {
+  process.env.EDGEFIELD_DEMO = '1'; // the demo mailbox route answers only in demo mode
+  handle = await createTestDb();
+  setDbForTesting(handle);
+  w = await buildWorld(handle.db);
+  await setSolveField(w.wsA, w.solveA, null, new Uint8Array([69, 70, 76, 68]));
+});
+afterAll(async () => {
+  if (wasDemo === undefined) delete process.env.EDGEFIELD_DEMO;
+  else process.env.EDGEFIELD_DEMO = wasDemo;
+  setDbForTesting(undefined);
+  await handle?.close();
+});
+
+function routeExists(row: RouteRow) {
+  return fs.existsSync(path.join(API_DIR, row.file, 'route.ts'));
+}
+
+let counter = 0;
+async function call(row: RouteRow, who: Who | null, params?: Record<string, string>) {
+  auth.user = who ? w.users[who] : null;
+  const mod = (await import(/* @vite-ignore */ path.join(API_DIR, row.file, 'route.ts'))) as Record<
+    string,
+    (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>
+  >;
+  const fn = mod[row.method];
+  if (!fn) throw new Error(`${row.file} exports no ${row.method}`);
+  const n = ++counter;
+  const init: RequestInit = { method: row.method };
+  if (row.rawBody) {
+    const { contentType, data } = row.rawBody(w);
+    init.body = data;
+    init.headers = { 'content-type': contentType };
+  } else if (row.body) {
+    init.body = JSON.stringify(row.body(w, n));
+    init.headers = { 'content-type': 'application/json' };
+  }
+  const req = new Request(`http://localhost/api/${row.file}${row.query ?? ''}`, init);
+  const res = await fn(req, { params: Promise.resolve(params ?? row.params?.(w) ?? {}) });
+  const text = await res.text();
+  let json: unknown = null;
+  try {
+    json = JSON.parse(text);
+  } catch {
+    /* binary body */
+  }
+  return { status: res.status, json: json as { error?: { code: string; message: string } } | null };
+}
+
+function expectErrorShape(json: { error?: { code: string; message: string } } | null) {
+  expect(json?.error).toBeDefined();
+  expect(typeof json!.error!.code).toBe('string');
+  expect(json!.error!.message.length).toBeGreaterThan(3);
+}
+
+const rows = ROUTES.filter(routeExists);
+
+describe.each(rows.map((r) => [`${r.method} /api/${r.file}`, r] as const))('%s', (_name, row) => {
+  if (row.access === 'public') {
+    it('answers signed out', async () => {
+      const r = await call(row, null);
+      expect(row.ok).toContain(r.status);
+    });
+    return;
+  }
+
+  it('signed out → 401', async () => {
+    const r = await call(row, null);
+    expect(r.status).toBe(401);
+    expectErrorShape(r.json);
+  });
+
+  if (row.access === 'user') {
+    it('any signed-in user → success', async () => {
+      for (const who of ['owner', 'viewer', 'outsider'] as const) {
+        const r = await call(row, who);
+        expect(row.ok, `${who}: ${JSON.stringify(r.json)}`).toContain(r.status);
+      }
+    });
+    return;
+  }
+  const needed = row.access;
+
+  it('member of another workspace → 404', async () => {
+    const r = await call(row, 'outsider');
+    expect(r.status).toBe(404);
+    expectErrorShape(r.json);
+  });
+
+  if (row.foreignParams) {
+    it('another workspace’s ids, from an owner of this one → 404', async () => {
+      const r = await call(row, 'owner', row.foreignParams!(w));
+      expect(r.status).toBe(404);
+      expectErrorShape(r.json);
+    });
+  }
+
+  it('malformed ids → 404', async () => {
+    const p = Object.fromEntries(Object.keys(row.params!(w)).map((k) => [k, "x'; drop table users;--"]));
+    const r = await call(row, 'owner', p);
+    expect(r.status).toBe(404);
+  });
+
+  for (const role of ['viewer', 'editor', 'owner'] as const) {
+    if (RANK[role] < RANK[needed]) {
+      it(`${role} → 403`, async () => {
+        const r = await call(row, role);
+        expect(r.status).toBe(403);
+        expectErrorShape(r.json);
+      });
+    } else {
+      it(`${role} → allowed`, async () => {
+        const r = await call(row, role);
+        expect(row.ok, JSON.stringify(r.json)).toContain(r.status);
+      });
+    }
+  }
+});
+
+describe('the route table covers every route handler', () => {
+  const METHOD_RE = /export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE|HEAD|OPTIONS)\b|\bas\s+(GET|POST|PUT|PATCH|DELETE|HEAD|OPTIONS)\b/g;
+  const files: string[] = [];
+  const walk = (d: string) => {
+    for (const e of fs.readdirSync(d, { withFileTypes: true })) {
+      const p = path.join(d, e.name);
+      if (e.isDirectory()) walk(p);
+      else if (e.name === 'route.ts') files.push(path.relative(API_DIR, path.dirname(p)).split(path.sep).join('/'));
+    }
+  };
+  walk(API_DIR);
+
+  it('finds the route files', () => {
+    expect(files.length).toBeGreaterThanOrEqual(10);
+  });
+
+  it.each(files)('app/api/%s: every exported method is in the table', (file) => {
+    if (UNCHECKED_ROUTES.some((u) => u.file === file)) return;
+    const src = fs.readFileSync(path.join(API_DIR, file, 'route.ts'), 'utf8');
+    const methods = new Set<Method>();
+    for (const m of src.matchAll(METHOD_RE)) methods.add((m[1] ?? m[2]) as Method);
+    expect(methods.size, `${file} exports no handler`).toBeGreaterThan(0);
+    for (const m of methods) {
+      expect(
+        ROUTES.some((r) => r.file === file && r.method === m),
+        `${m} /api/${file} is not in tests/integration/routes-table.ts`,
+      ).toBe(true);
+    }
+  });
+});
+
+describe('bodies and errors', () => {
+  const post = async (file: string, params: Record<string, string>, body: string, headers: Record<string, string> = {}) => {
+    auth.user = w.users.editor;
+    const mod = (await import(/* @vite-ignore */ path.join(API_DIR, file, 'route.ts'))) as Record<
+      string,
+      (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>
+    >;
+    const res = await mod.POST!(
+      new Request('http://localhost/x', { method: 'POST', body, headers: { 'content-type': 'application/json', ...headers } }),
+      { params: Promise.resolve(params) },
+    );
+    return { status: res.status, json: (await res.json()) as { error: { code: string; message: string; field?: string } } };
+  };
+
+  it('invalid section content → 422 naming the field', async () => {
+    const r = await post('workspaces/[workspaceId]/sections', { workspaceId: w.wsA }, JSON.stringify({ name: 'x', content: { format: 'edgefield.section/1', units: 'furlong', nets: [], shapes: [] } }));
+    expect(r.status).toBe(422);
+    expect(r.json.error.code).toBe('invalid');
+    expect(r.json.error.field).toBe('content.units');
+  });
+
+  it('malformed JSON → 400, NUL characters → 422, oversized → 413', async () => {
+    const params = { workspaceId: w.wsA };
+    expect((await post('workspaces/[workspaceId]/sections', params, '{"name": ')).status).toBe(400);
+    const nul = await post('workspaces/[workspaceId]/sections', params, JSON.stringify({ name: 'a\u0000b', content: {} }));
+    expect(nul.status).toBe(422);
+    expect(nul.json.error.field).toBe('name');
+    const big = await post('workspaces/[workspaceId]/sections', params, JSON.stringify({ name: 'x'.repeat(3 * 1024 * 1024) }));
+    expect(big.status).toBe(413);
+    expect(big.json.error.code).toBe('too_large');
+  });
+
+  it('a stale baseRevisionId → 409 and nothing saved', async () => {
+    const params = { workspaceId: w.wsA, sectionId: w.sectionA };
+    const first = await post(`workspaces/[workspaceId]/sections/[sectionId]/revisions`, params, JSON.stringify({ content: (await import('./helpers/fixtures')).coaxSection(), baseRevisionId: w.revisionA }));
+    // The table run above already saved newer revisions, so revisionA is stale.
+    expect(first.status).toBe(409);
+    expect(first.json.error.code).toBe('conflict');
+  });
+
+  it('the same solve twice → 201 then 200 with the same id', async () => {
+    const body = JSON.stringify({
+      sectionId: w.sectionA,
+      revisionId: w.revisionA,
+      settings: { preset: 'standard' },
+      settingsHash: 'dedupe-route',
+      result: (await import('./helpers/fixtures')).fakeResult(),
+      status: 'done',
+    });
+    const a = await post('workspaces/[workspaceId]/solves', { workspaceId: w.wsA }, body);
+    const b = await post('workspaces/[workspaceId]/solves', { workspaceId: w.wsA }, body);
+    expect(a.status).toBe(201);
+    expect(b.status).toBe(200);
+    expect((b.json as unknown as { solve: { id: string } }).solve.id).toBe((a.json as unknown as { solve: { id: string } }).solve.id);
+  });
+});

@@ -1,0 +1,205 @@
+/**
+ * THE table of API route handlers and who may call them. One row per (route file, method).
+ * tests/integration/route-roles.test.ts generates from it, for every row:
+ *   signed out → 401; member of another workspace → 404; each role below `minRole` → 403;
+ *   each role at or above → a success status; and ids of another workspace → 404.
+ * Another test fails when a route file under app/api exports a method this table does not
+ * list, so a new route cannot ship unchecked. Issue 8 extends this table (share links ...).
+ */
+import type { World } from './helpers/fixtures';
+import { coaxSection, fakeResult } from './helpers/fixtures';
+
+export type Role = 'owner' | 'editor' | 'viewer';
+export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+export interface RouteRow {
+  /** Route file relative to app/api, without "/route.ts". */
+  file: string;
+  method: Method;
+  /** 'public' (no session needed), 'user' (any signed-in user), or the least workspace role. */
+  access: 'public' | 'user' | Role;
+  params?: (w: World) => Record<string, string>;
+  /** The same call aimed at another workspace's object, from a member of workspace A (expects 404). */
+  foreignParams?: (w: World) => Record<string, string>;
+  body?: (w: World, n: number) => unknown;
+  /** Raw body (e.g. octet-stream uploads). */
+  rawBody?: (w: World) => { contentType: string; data: Uint8Array };
+  query?: string;
+  /** Statuses that show the caller got past the access check. */
+  ok: number[];
+}
+
+const WS = 'workspaces/[workspaceId]';
+const SEC = `${WS}/sections/[sectionId]`;
+const SOL = `${WS}/solves/[solveId]`;
+
+export const ROUTES: RouteRow[] = [
+  { file: 'workspaces', method: 'GET', access: 'user', ok: [200] },
+  {
+    file: WS,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA }),
+    ok: [200],
+  },
+  {
+    file: WS,
+    method: 'PATCH',
+    access: 'owner',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (_w, n) => ({ name: `Workspace A (${n})` }),
+    ok: [200],
+  },
+  { file: `${WS}/members`, method: 'GET', access: 'viewer', params: (w) => ({ workspaceId: w.wsA }), ok: [200] },
+  {
+    file: `${WS}/sections`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA }),
+    query: '?q=sec&sort=name&dir=asc',
+    ok: [200],
+  },
+  {
+    file: `${WS}/sections`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (_w, n) => ({ name: `New section ${n}`, content: coaxSection() }),
+    ok: [201],
+  },
+  {
+    file: SEC,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    ok: [200],
+  },
+  {
+    file: SEC,
+    method: 'PATCH',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    body: (_w, n) => ({ name: `Renamed ${n}` }),
+    ok: [200],
+  },
+  {
+    file: SEC,
+    method: 'DELETE',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    ok: [200],
+  },
+  {
+    file: `${SEC}/restore`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    ok: [200],
+  },
+  {
+    file: `${SEC}/revisions`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    ok: [200],
+  },
+  {
+    file: `${SEC}/revisions`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    body: (_w, n) => ({ content: coaxSection(0.5 + n / 100), message: `edit ${n}` }),
+    // 409 when the section is deleted at that moment is not expected: restore runs right after delete.
+    ok: [201],
+  },
+  {
+    file: `${SEC}/revisions/[revisionId]`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA, revisionId: w.revisionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB, revisionId: w.revisionB }),
+    ok: [200],
+  },
+  {
+    file: `${WS}/solves`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA }),
+    query: '?sort=created&dir=desc',
+    ok: [200],
+  },
+  {
+    file: `${WS}/solves`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (w, n) => ({
+      sectionId: w.sectionA,
+      revisionId: w.revisionA,
+      settings: { preset: 'quick', n },
+      settingsHash: `roles-${n}`,
+      result: fakeResult(),
+      status: 'done',
+    }),
+    ok: [201],
+  },
+  {
+    file: SOL,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, solveId: w.solveA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, solveId: w.solveB }),
+    ok: [200],
+  },
+  // RESULTS helper's routes (shared-interfaces.md): checked here once their files exist.
+  {
+    file: `${SOL}/field`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, solveId: w.solveA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, solveId: w.solveB }),
+    // route-roles.test.ts stores a field on solveA before the run.
+    ok: [200],
+  },
+  {
+    file: `${SOL}/field`,
+    method: 'PUT',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, solveId: w.solveA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, solveId: w.solveB }),
+    rawBody: () => ({ contentType: 'application/octet-stream', data: new Uint8Array([1, 2, 3, 4]) }),
+    // Past the access check the content is judged: solveA already holds a field (409) or the
+    // bytes are not a field blob (422). Either proves the role was accepted.
+    ok: [409, 422],
+  },
+  {
+    file: `${SOL}/comments`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, solveId: w.solveA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, solveId: w.solveB }),
+    ok: [200],
+  },
+  {
+    file: `${SOL}/comments`,
+    method: 'POST',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, solveId: w.solveA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, solveId: w.solveB }),
+    body: (_w, n) => ({ body: `Comment ${n}` }),
+    ok: [201],
+  },
+  // Auth and demo routes: not workspace data.
+  { file: 'demo/mailbox', method: 'GET', access: 'public', ok: [200] },
+];
+
+/** Route files whose methods are not role-checked by design (next-auth's own endpoints). */
+export const UNCHECKED_ROUTES: { file: string; reason: string }[] = [
+  { file: 'auth/[...nextauth]', reason: 'next-auth endpoints (sign-in, callback, session, CSRF)' },
+];
