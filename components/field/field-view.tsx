@@ -99,6 +99,7 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const drag = useRef<{ kind: 'pan' | 'cut'; sx: number; sy: number; v: View } | null>(null);
   const [ready, setReady] = useState(false);
+  const markedModel = useRef<unknown>(null);
 
   // ---- derived once per solve and drive ----
   const model: FieldModel = useMemo(() => {
@@ -218,9 +219,11 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
       ctx.lineTo(px, py + 8);
       ctx.stroke();
     }
-    if (!ready) {
-      setReady(true);
+    if (markedModel.current !== model) {
+      // first frame of a new solve's field: a mark the bench measures against 'edgefield:solve-start'
+      markedModel.current = model;
       if (typeof performance.mark === 'function') performance.mark('edgefield:field-drawn');
+      if (!ready) setReady(true);
     }
   }, [view, width, height, images, model, resolved, mode, cut, probe, tool, volts, ready]);
 

@@ -42,15 +42,36 @@ export interface SolveWorkbenchProps {
   layout?: 'stack' | 'split';
 }
 
-export function SolveWorkbench({ workspaceId, sectionId, section, canSolve, blockedReason, canEdit, layout = 'stack' }: SolveWorkbenchProps) {
-  const { state, solve, cancel } = useSolver();
+export type Solver = ReturnType<typeof useSolver>;
+
+/** Solve, read and save in one column (or results beside the field with layout="split"). */
+export function SolveWorkbench(props: SolveWorkbenchProps) {
+  const solver = useSolver();
+  return (
+    <div className="flex flex-col gap-3" data-testid="solve-workbench">
+      <SolveBar {...props} solver={solver} />
+      <SolveOutput solver={solver} layout={props.layout} />
+    </div>
+  );
+}
+
+/** The solve controls: mesh preset, Solve / Cancel, live progress, status, save, messages. */
+export function SolveBar({
+  workspaceId,
+  sectionId,
+  section,
+  canSolve,
+  blockedReason,
+  canEdit,
+  solver,
+}: Omit<SolveWorkbenchProps, 'layout'> & { solver: Solver }) {
+  const { state, solve, cancel } = solver;
   const sectionPreset = (section?.mesh?.preset as SolvePreset | undefined) ?? 'standard';
   const [preset, setPreset] = useState<SolvePreset | 'section'>('section');
   const settings: SolveSettings = { preset: preset === 'section' ? sectionPreset : preset, tolerance: DEFAULT_TOLERANCE };
   const [saving, setSaving] = useState(false);
   const [saved, setSaved] = useState<SavedSolveRef | null>(null);
   const [saveError, setSaveError] = useState<string | null>(null);
-  const [tab, setTab] = useState<'results' | 'field'>('results');
   const running = state.status === 'running';
   const stale = useMemo(
     () => !!(state.solvedSection && section && canonicalJson(state.solvedSection) !== canonicalJson(section)),
@@ -96,7 +117,7 @@ export function SolveWorkbench({ workspaceId, sectionId, section, canSolve, bloc
   const p = state.progress;
   const fraction = p?.fraction;
   return (
-    <div className="flex flex-col gap-3" data-testid="solve-workbench">
+    <div className="flex flex-col gap-3" data-testid="solve-bar">
       <div className="flex flex-wrap items-center gap-2 rounded-md border border-line bg-surface px-3 py-2 shadow-xs">
         <label className="flex items-center gap-1.5 text-sm text-ink-soft">
           Mesh
@@ -192,6 +213,16 @@ export function SolveWorkbench({ workspaceId, sectionId, section, canSolve, bloc
         <Alert tone="info">The drawing has changed since this solve; the results below belong to the drawing as it was. Solve again to update them.</Alert>
       ) : null}
 
+    </div>
+  );
+}
+
+/** The results and field of the solver's last solve (tabs, or side by side with layout="split"). */
+export function SolveOutput({ solver, layout = 'stack' }: { solver: Solver; layout?: 'stack' | 'split' }) {
+  const { state } = solver;
+  const [tab, setTab] = useState<'results' | 'field'>('results');
+  return (
+    <>
       {state.result && state.fields && state.solvedSection ? (
         layout === 'split' ? (
           <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,26rem)_minmax(0,1fr)]">
@@ -223,6 +254,6 @@ export function SolveWorkbench({ workspaceId, sectionId, section, canSolve, bloc
           </div>
         )
       ) : null}
-    </div>
+    </>
   );
 }
