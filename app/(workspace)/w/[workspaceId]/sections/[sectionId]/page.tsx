@@ -4,7 +4,7 @@ import { getSection } from '@/db/queries/sections';
 import { requireWorkspaceMember } from '@/lib/server/access';
 import { SectionHeader } from '../../_components/section-header';
 import { roleCanEdit, toPlain, type SectionDetail } from '../../_components/types';
-import { SectionEditorClient } from '@/components/canvas/section-editor-client';
+import { SectionSolveArea } from '@/components/results/section-solve-area';
 
 export const metadata: Metadata = { title: 'Section' };
 
@@ -28,7 +28,8 @@ export default async function SectionPage({ params }: { params: Promise<{ worksp
       <SectionHeader workspaceId={workspaceId} initial={header} canEdit={canEdit} />
       {/* EDITOR: the drawing editor (components/canvas). */}
       <div data-testid="section-editor-slot" data-has-content={content ? 'true' : 'false'} className="flex min-h-0 flex-1 flex-col p-3">
-        <SectionEditorClient
+        {/* RESULTS: the editor with solving, results and field views (wraps SectionEditorClient). */}
+        <SectionSolveArea
           workspaceId={workspaceId}
           sectionId={sectionId}
           content={content}
