@@ -134,7 +134,7 @@ function readable(file: string, units: string, r: SectionResult): string {
     const p = r.plates;
     const u = UNIT_LABELS[units as keyof typeof UNIT_LABELS] ?? units;
     out.push('');
-    out.push('Plate pair:');
+    out.push(p.mirrored ? 'Plate pair (whole pair: the drawn halves end on a mirror boundary):' : 'Plate pair:');
     out.push(`  width (overlap) = ${sig(p.width, 6)} ${u}, gap = ${sig(p.gap, 6)} ${u}, gap/width = ${sig(p.gapToWidth, 4)}`);
     out.push(`  ideal ε·w/d     = ${sig(p.idealPerM * 1e12, 6)} pF/m${p.epsR !== undefined ? ` (εr = ${sig(p.epsR, 4)} in the gap)` : ''}`);
     if (p.solvedPerM !== undefined) out.push(`  solved          = ${sig(p.solvedPerM * 1e12, 6)} pF/m  ±${pct(e.relative)}`);

@@ -131,6 +131,8 @@ export function buildResult(
       const i = Math.max(idx[0]!, idx[1]!);
       solved = sol.maxwell[i]![i]!;
     }
+    // With a mirror the drawn plates are halves and carry half the charge of the whole.
+    if (solved !== undefined && pair.mirrored) solved *= 2;
     if (solved !== undefined) {
       const idealPerM = (EPS0 * pair.epsR * pair.width) / pair.gap;
       const plates: PlatesValues = {
@@ -143,6 +145,7 @@ export function buildResult(
         epsR: pair.epsR,
         arrangement: pair.arrangement,
         shapeIds: pair.shapeIds,
+        ...(pair.mirrored ? { mirrored: true } : {}),
       };
       result.plates = plates;
     }

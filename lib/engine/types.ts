@@ -51,6 +51,11 @@ export interface PlatesValues {
   arrangement?: 'vertical' | 'horizontal';
   /** The two plate shapes (lower or left one first). */
   shapeIds?: [string, string];
+  /**
+   * True when the drawn plates are halves ending on a mirror boundary: width, idealPerM
+   * and solvedPerM then describe the whole (mirrored) pair, twice the drawn half.
+   */
+  mirrored?: boolean;
 }
 
 export interface SectionResult {

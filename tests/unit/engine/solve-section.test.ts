@@ -48,6 +48,20 @@ describe('plate detection', () => {
     none([strip('a', 0, 'p'), strip('b', 1, 'p')], [...nets]); // same net
   });
 
+  it('halves ending on a mirror boundary describe the whole pair; other mirrors make it no pair', () => {
+    const half = (boundary: Record<string, unknown>, x0 = 0) => resolved({ nets, boundary, shapes: [
+      { id: 'u', type: 'strip', x1: x0, y1: 0.5, x2: 2, y2: 0.5, conductor: 'p' },
+      { id: 'l', type: 'strip', x1: 0, y1: -0.5, x2: 2, y2: -0.5, conductor: 'q' },
+    ] });
+    const p = detectPlates(half({ left: { type: 'mirror', at: 0 } }))!;
+    expect(p.mirrored).toBe(true);
+    expect(p.width).toBeCloseTo(4, 14);
+    expect(p.gap).toBeCloseTo(1, 14);
+    expect(detectPlates(half({ left: { type: 'mirror', at: 0 } }, 0.5))).toBeNull();
+    expect(detectPlates(half({ bottom: { type: 'mirror', at: -1 } }))).toBeNull();
+    expect(detectPlates(half({ bottom: { type: 'ground', at: -1 } }))!.mirrored).toBe(false);
+  });
+
   it('the medium is the one painted at the centre of the gap', () => {
     const s = resolved({
       nets,
