@@ -13,7 +13,7 @@ import os from 'node:os';
 import path from 'node:path';
 
 export function getDataDir(): string {
-  return path.resolve(process.env.EDGEFIELD_DATA_DIR || './data');
+  return path.resolve(/*turbopackIgnore: true*/ process.env.EDGEFIELD_DATA_DIR || './data');
 }
 
 export class DataDirLockedError extends Error {

@@ -27,7 +27,7 @@ function migrationsHash(): string {
   return h.digest('hex').slice(0, 16);
 }
 
-async function templateBlob(): Promise<Blob> {
+export async function templateBlob(): Promise<Blob> {
   const file = path.join(os.tmpdir(), `edgefield-test-db-${migrationsHash()}.tar.gz`);
   if (!fs.existsSync(file)) {
     const h = await openPglite('memory://');

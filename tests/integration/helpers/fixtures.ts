@@ -3,7 +3,7 @@
  * (an outsider who owns it), each with a section, a revision and a solve. All fictional.
  */
 import type { Db } from '@/db/client';
-import { memberships, sectionRevisions, sections, solves, users, workspaces } from '@/db/schema';
+import { invitations, memberships, sectionRevisions, sections, solves, users, workspaces } from '@/db/schema';
 import { RESULT_FORMAT } from '@/lib/engine/types';
 import { sectionSchema, type Section } from '@/lib/section/schema';
 import { eq } from 'drizzle-orm';
@@ -20,6 +20,9 @@ export interface World {
   sectionB: string;
   revisionB: string;
   solveB: string;
+  /** Pending invitations (issue 7), one per workspace; token hashes are placeholders. */
+  invitationA: string;
+  invitationB: string;
 }
 
 /** A valid coax section (the shared sample shape), units mm. */
@@ -94,6 +97,15 @@ export async function buildWorld(db: Db): Promise<World> {
   };
   const sa = await mkSection(a!.id, u.editor.id, 'Section in A');
   const sb = await mkSection(b!.id, u.outsider.id, 'Section in B');
+  const week = new Date(Date.now() + 7 * 86400e3);
+  const [ia] = await db
+    .insert(invitations)
+    .values({ workspaceId: a!.id, email: 'invited-a@test.example', role: 'editor', tokenHash: 'fixture-a', invitedBy: u.owner.id, expiresAt: week })
+    .returning();
+  const [ib] = await db
+    .insert(invitations)
+    .values({ workspaceId: b!.id, email: 'invited-b@test.example', role: 'editor', tokenHash: 'fixture-b', invitedBy: u.outsider.id, expiresAt: week })
+    .returning();
   return {
     users: u,
     wsA: a!.id,
@@ -104,5 +116,7 @@ export async function buildWorld(db: Db): Promise<World> {
     sectionB: sb.section,
     revisionB: sb.revision,
     solveB: sb.solve,
+    invitationA: ia!.id,
+    invitationB: ib!.id,
   };
 }
