@@ -154,3 +154,9 @@ export function residualAt(lv: SweepLevel, kk: number): number {
   }
   return v;
 }
+
+/** r = b − A x on the whole level (padded). Writes r inside the grid. */
+export function residualFull(lv: SweepLevel, r: Float64Array): void {
+  const { nx, ny, off } = lv;
+  for (let kk = off; kk < off + nx * ny; kk++) r[kk] = residualAt(lv, kk);
+}

@@ -156,3 +156,79 @@ export function anchorSystem(n: number): LinearSystem {
     },
   );
 }
+
+/**
+ * Geometrically graded axis on [0, 1]: spacing grows by a constant factor from the middle
+ * outwards so that the largest spacing is `maxRatio` times the smallest (1 = uniform).
+ */
+export function gradedAxis(n: number, maxRatio: number): Float64Array {
+  const cells = n - 1;
+  const mid = (cells - 1) / 2;
+  const g = mid > 0 ? Math.pow(maxRatio, 1 / mid) : 1;
+  const h = new Float64Array(cells);
+  let sum = 0;
+  for (let i = 0; i < cells; i++) {
+    h[i] = Math.pow(g, Math.abs(i - mid));
+    sum += h[i];
+  }
+  const x = new Float64Array(n);
+  for (let i = 0; i < cells; i++) x[i + 1] = x[i] + h[i] / sum;
+  x[n - 1] = 1;
+  return x;
+}
+
+function nearest(axis: Float64Array, v: number): number {
+  let best = 0;
+  for (let i = 1; i < axis.length; i++) if (Math.abs(axis[i] - v) < Math.abs(axis[best] - v)) best = i;
+  return best;
+}
+
+export interface HardSystemOptions {
+  /** Largest / smallest spacing along each axis (geometric growth from the middle). @default 1 */
+  maxRatio?: number;
+  /** Dielectric bands εr 1 / 4.4 / 12 / 80 side by side below y = 0.6. @default true */
+  jumps?: boolean;
+  /** One-node-thick fixed lines (horizontal and vertical strips) and isolated fixed nodes. @default true */
+  strips?: boolean;
+  /** A fully fixed block (conductor interior). @default true */
+  block?: boolean;
+  /** Fixed bottom row (ground plane); otherwise all edges natural Neumann. @default true */
+  ground?: boolean;
+  /** Extra diagonal (Robin) term added on the left, right and top edge nodes. @default 0 */
+  robin?: number;
+}
+
+/**
+ * A deliberately hard system for solver tests: dielectric jumps, zero-thickness strips in both
+ * directions, isolated fixed nodes, a conductor block, graded cells, Neumann or Robin edges.
+ * Invented test geometry (no physical reference needed: tests compare with a direct solve).
+ */
+export function hardSystem(nx: number, ny: number, opts: HardSystemOptions = {}): LinearSystem {
+  const { maxRatio = 1, jumps = true, strips = true, block = true, ground = true, robin = 0 } = opts;
+  const xs = gradedAxis(nx, maxRatio), ys = gradedAxis(ny, maxRatio);
+  const bands = [1, 4.4, 12, 80];
+  const eps = (i: number, j: number) => {
+    if (!jumps) return 1;
+    const xc = 0.5 * (xs[i] + xs[i + 1]), yc = 0.5 * (ys[j] + ys[j + 1]);
+    if (yc > 0.6) return 1;
+    return bands[Math.min(3, Math.floor(xc * 4))];
+  };
+  const hRow = nearest(ys, 0.45), hI0 = nearest(xs, 0.3), hI1 = nearest(xs, 0.7);
+  const vCol = nearest(xs, 0.85), vJ0 = nearest(ys, 0.2), vJ1 = nearest(ys, 0.5);
+  const iso1 = [nearest(xs, 0.15), nearest(ys, 0.75)], iso2 = [nearest(xs, 0.62), nearest(ys, 0.85)];
+  const fixed = (i: number, j: number): number | null => {
+    if (ground && j === 0) return 0;
+    if (strips) {
+      if (j === hRow && i >= hI0 && i <= hI1) return 1;
+      if (i === vCol && j >= vJ0 && j <= vJ1) return 0.5;
+      if (i === iso1[0] && j === iso1[1]) return -1;
+      if (i === iso2[0] && j === iso2[1]) return 0.3;
+    }
+    if (block && xs[i] >= 0.35 && xs[i] <= 0.55 && ys[j] >= 0.65 && ys[j] <= 0.78) return 1;
+    return null;
+  };
+  const robinTerm = robin > 0
+    ? (i: number, j: number) => (i === 0 || i === nx - 1 || j === ny - 1 ? robin : 0)
+    : undefined;
+  return assembleSystem(xs, ys, eps, fixed, robinTerm);
+}
