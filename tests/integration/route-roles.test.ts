@@ -18,6 +18,12 @@ vi.mock('@/lib/server/session', () => ({
   },
 }));
 
+// Invitation mails (issue 7) are not sent from this test; tests/integration/teamwork-members.test.ts checks them.
+vi.mock('@/lib/server/mail', async (importOriginal) => ({
+  ...(await importOriginal<typeof import('@/lib/server/mail')>()),
+  sendMail: async () => {},
+}));
+
 import { setDbForTesting, type DbHandle } from '@/db/client';
 import { setSolveField } from '@/db/queries/solves';
 import { createTestDb } from './helpers/db';

@@ -195,6 +195,44 @@ export const ROUTES: RouteRow[] = [
     body: (_w, n) => ({ body: `Comment ${n}` }),
     ok: [201],
   },
+  // Members and invitations (issue 7, TEAMWORK).
+  { file: `${WS}/invitations`, method: 'GET', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), ok: [200] },
+  {
+    file: `${WS}/invitations`,
+    method: 'POST',
+    access: 'owner',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (_w, n) => ({ email: `invitee-${n}@test.example`, role: 'viewer' }),
+    ok: [201],
+  },
+  {
+    file: `${WS}/invitations/[invitationId]`,
+    method: 'DELETE',
+    access: 'owner',
+    params: (w) => ({ workspaceId: w.wsA, invitationId: w.invitationA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, invitationId: w.invitationB }),
+    ok: [200],
+  },
+  {
+    file: `${WS}/members/[userId]`,
+    method: 'PATCH',
+    access: 'owner',
+    params: (w) => ({ workspaceId: w.wsA, userId: w.users.editor.id }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, userId: w.users.outsider.id }),
+    body: () => ({ role: 'editor' }),
+    ok: [200],
+  },
+  {
+    // Removing someone else needs an owner (a member may remove only themselves: leaving).
+    // Here the owner removes themselves while being the only owner: refused with 409,
+    // which proves the call got past the access check without changing the world.
+    file: `${WS}/members/[userId]`,
+    method: 'DELETE',
+    access: 'owner',
+    params: (w) => ({ workspaceId: w.wsA, userId: w.users.owner.id }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, userId: w.users.outsider.id }),
+    ok: [409],
+  },
   // Auth and demo routes: not workspace data.
   { file: 'demo/mailbox', method: 'GET', access: 'public', ok: [200] },
 ];
