@@ -18,11 +18,13 @@ export default defineConfig({
   fullyParallel: false,
   workers: 1,
   retries: process.env.CI ? 1 : 0,
-  timeout: 60_000,
-  expect: { timeout: 10_000 },
+  // Generous: the machine is small (2 cores) and often shared with builds.
+  timeout: 120_000,
+  expect: { timeout: 15_000 },
   forbidOnly: Boolean(process.env.CI),
-  reporter: process.env.CI ? [['list'], ['html', { open: 'never' }]] : [['list']],
-  outputDir: 'test-results',
+  reporter: process.env.CI ? [['list'], ['html', { open: 'never', outputFolder: `playwright-report/e2e-${port}` }]] : [['list']],
+  // Per port, so runs of several developers on one machine do not clear each other's artifacts.
+  outputDir: `test-results/e2e-${port}`,
   use: {
     baseURL,
     ...devices['Desktop Chrome'],

@@ -31,13 +31,15 @@ export interface FieldProps {
   hint?: ReactNode;
   children: ReactNode;
   className?: string;
+  /** data-testid of the error message element. */
+  errorTestId?: string;
 }
 
 /**
  * A label, a control (children; give it `id`, `aria-invalid` and `aria-describedby={fieldDescribedBy(id)}`),
  * an optional hint and an error message that screen readers announce.
  */
-export function Field({ id, label, error, hint, children, className }: FieldProps) {
+export function Field({ id, label, error, hint, children, className, errorTestId }: FieldProps) {
   return (
     <div className={cn('space-y-1.5', className)}>
       <Label htmlFor={id}>{label}</Label>
@@ -47,7 +49,12 @@ export function Field({ id, label, error, hint, children, className }: FieldProp
           {hint}
         </p>
       ) : null}
-      <p id={`${id}-error`} className="min-h-0 text-xs font-medium text-danger empty:hidden" aria-live="polite">
+      <p
+        id={`${id}-error`}
+        className="min-h-0 text-xs font-medium text-danger empty:hidden"
+        aria-live="polite"
+        data-testid={errorTestId}
+      >
         {error ?? ''}
       </p>
     </div>

@@ -78,11 +78,31 @@ export function SectionsPanel({
 
   return (
     <Card aria-labelledby={`${id}-title`} data-testid="sections-panel">
-      <div className="flex flex-wrap items-center gap-3 border-b border-line px-5 py-3">
+      <div className="flex items-center gap-2 px-5 pb-2 pt-3.5">
         <h2 id={`${id}-title`} className="mr-auto text-md font-semibold text-ink">
           {deleted ? 'Deleted sections' : 'Sections'}
         </h2>
-        <div className="relative">
+        {canEdit ? (
+          <Button
+            size="sm"
+            variant={deleted ? 'secondary' : 'ghost'}
+            onClick={() => setDeleted((d) => !d)}
+            aria-pressed={deleted}
+            data-testid="sections-show-deleted"
+          >
+            <Trash2 className="size-4" aria-hidden />
+            {deleted ? 'Back to sections' : 'Deleted'}
+          </Button>
+        ) : null}
+        {canEdit && !deleted ? (
+          <Button size="sm" variant="primary" onClick={() => setCreating(true)} data-testid="new-section">
+            <Plus className="size-4" aria-hidden />
+            New section
+          </Button>
+        ) : null}
+      </div>
+      <div className="flex items-center gap-3 border-b border-line px-5 pb-3">
+        <div className="relative min-w-0 flex-1">
           <label htmlFor={`${id}-q`} className="sr-only">
             Search sections
           </label>
@@ -90,16 +110,16 @@ export function SectionsPanel({
           <Input
             id={`${id}-q`}
             type="search"
-            placeholder="Search name or description"
+            placeholder="Search by name or description"
             value={q}
             onChange={(e) => setQ(e.target.value)}
-            className="h-8 w-64 pl-8 text-sm"
+            className="h-8 pl-8 text-sm"
             data-testid="sections-search"
           />
         </div>
-        <div className="flex items-center gap-1">
+        <div className="flex shrink-0 items-center gap-1.5">
           <label htmlFor={`${id}-sort`} className="text-sm text-ink-muted">
-            Sort
+            Sort by
           </label>
           <Select
             id={`${id}-sort`}
@@ -129,24 +149,6 @@ export function SectionsPanel({
             {dir === 'asc' ? <ArrowUpNarrowWide className="size-4" aria-hidden /> : <ArrowDownWideNarrow className="size-4" aria-hidden />}
           </Button>
         </div>
-        {canEdit ? (
-          <Button
-            size="sm"
-            variant={deleted ? 'secondary' : 'ghost'}
-            onClick={() => setDeleted((d) => !d)}
-            aria-pressed={deleted}
-            data-testid="sections-show-deleted"
-          >
-            <Trash2 className="size-4" aria-hidden />
-            {deleted ? 'Back to sections' : 'Deleted'}
-          </Button>
-        ) : null}
-        {canEdit && !deleted ? (
-          <Button size="sm" variant="primary" onClick={() => setCreating(true)} data-testid="new-section">
-            <Plus className="size-4" aria-hidden />
-            New section
-          </Button>
-        ) : null}
       </div>
 
       {query.isError ? (
