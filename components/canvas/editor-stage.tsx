@@ -748,12 +748,14 @@ export function EditorStage(props: EditorStageProps) {
           </Group>
         </Group>
       </Layer>
-      <Layer listening={false}>{overlay}</Layer>
+      <Layer listening={false}>
+        {overlay}
+        <Rulers view={view} width={width} height={height} units={units} minor={steps.minor} major={steps.major} />
+      </Layer>
       <Layer ref={guideLayerRef} listening={false}>
         <Line ref={guideXRef} points={[0, 0, 0, 0]} stroke={GUIDE} strokeWidth={1} dash={[4, 3]} visible={false} />
         <Line ref={guideYRef} points={[0, 0, 0, 0]} stroke={GUIDE} strokeWidth={1} dash={[4, 3]} visible={false} />
         <Rect ref={boxRef} stroke={GUIDE} strokeWidth={1} dash={[3, 3]} fill="rgba(47,94,128,0.07)" visible={false} />
-        <Rulers view={view} width={width} height={height} units={units} minor={steps.minor} major={steps.major} />
       </Layer>
     </Stage>
   );
