@@ -397,22 +397,39 @@ export function checkSection(section: ResolvedSection): SectionIssue[] {
     const r = regions[i];
     if (!r || s.dielectric === undefined) return;
     const covers: { r: Region; id: string }[] = [];
-    section.shapes.forEach((t, j) => {
+    const bb = r.bbox;
+    for (let j = 0; j < regions.length; j++) {
       const rt = regions[j];
-      if (!rt || j === i) return;
-      if (t.conductor === undefined && j < i) return;
-      if (bboxGap(r.bbox, rt.bbox) > 0) return;
+      if (!rt || j === i) continue;
+      const t = section.shapes[j]!;
+      if (t.conductor === undefined && j < i) continue;
+      const tb = rt.bbox;
+      if (tb.xmin > bb.xmax || tb.xmax < bb.xmin || tb.ymin > bb.ymax || tb.ymax < bb.ymin) continue;
       covers.push({ r: rt, id: t.id });
-    });
-    if (covers.length === 0) return;
-    const pts = samplePoints(s, r, 12);
-    if (pts.length === 0) return;
-    const used = new Set<string>();
-    for (const [x, y] of pts) {
-      const c = covers.find((cv) => cv.r.contains(x, y));
-      if (!c) return;
-      used.add(c.id);
     }
+    if (covers.length === 0) return;
+    // Sample a 12 × 12 grid over the dielectric; stop at the first point nothing covers.
+    const used = new Set<string>();
+    let inside = 0;
+    const N = 12;
+    for (let a = 0; a < N; a++) {
+      const x = bb.xmin + ((a + 0.5) / N) * (bb.xmax - bb.xmin);
+      for (let c = 0; c < N; c++) {
+        const y = bb.ymin + ((c + 0.5) / N) * (bb.ymax - bb.ymin);
+        if (!r.contains(x, y)) continue;
+        inside++;
+        let cover: { r: Region; id: string } | undefined;
+        for (const cv of covers) {
+          if (cv.r.contains(x, y)) {
+            cover = cv;
+            break;
+          }
+        }
+        if (!cover) return;
+        used.add(cover.id);
+      }
+    }
+    if (inside === 0) return;
     warn({
       code: 'hidden-dielectric',
       message: `dielectric ${q(s.id)} is covered entirely by ${[...used].map(q).join(', ')}; it has no effect`,
