@@ -68,7 +68,7 @@ async function call(row: RouteRow, who: Who | null, params?: Record<string, stri
   const init: RequestInit = { method: row.method };
   if (row.rawBody) {
     const { contentType, data } = row.rawBody(w);
-    init.body = data;
+    init.body = data as unknown as BodyInit;
     init.headers = { 'content-type': contentType };
   } else if (row.body) {
     init.body = JSON.stringify(row.body(w, n));

@@ -233,6 +233,16 @@ export const ROUTES: RouteRow[] = [
     foreignParams: (w) => ({ workspaceId: w.wsA, userId: w.users.outsider.id }),
     ok: [409],
   },
+  // Custom materials per workspace (issue 4, EDITOR).
+  { file: `${WS}/materials`, method: 'GET', access: 'viewer', params: (w) => ({ workspaceId: w.wsA }), ok: [200] },
+  {
+    file: `${WS}/materials`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (_w, n) => ({ material: { id: `lab-resin-${n}`, name: `Lab resin ${n}`, epsR: 3.1 } }),
+    ok: [201],
+  },
   // Auth and demo routes: not workspace data.
   { file: 'demo/mailbox', method: 'GET', access: 'public', ok: [200] },
 ];
