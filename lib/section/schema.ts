@@ -60,16 +60,19 @@ export const valueSchema = z.union([
     .max(LIMITS.expressionLength, `expression must be at most ${LIMITS.expressionLength} characters`),
 ]);
 export type Value = z.infer<typeof valueSchema>;
+/** A value with a description for the generated JSON Schema (docs/section.schema.json). */
+const described = (description: string) => valueSchema.describe(description);
+const length = (what: string) => described(`${what}, in the section's units (a number or an expression over the variables)`);
 
 export const materialSchema = z.strictObject({
   id: idSchema,
   name: nameSchema,
   /** Relative permittivity, ≥ 1. */
-  epsR: valueSchema,
+  epsR: described('relative permittivity εr, at least 1'),
   /** Loss tangent tan δ, ≥ 0. */
-  lossTangent: valueSchema.optional(),
+  lossTangent: described('loss tangent tan δ, at least 0').optional(),
   /** Typical dielectric strength in kV/mm (a laboratory figure, not a rating). */
-  breakdownKVPerMm: valueSchema.optional(),
+  breakdownKVPerMm: described('typical dielectric strength in kV/mm (a laboratory figure, not a rating)').optional(),
   /** Where the values come from, free text (shown in the editor). */
   source: z.string().max(300).optional(),
 });
@@ -77,9 +80,9 @@ export type Material = z.infer<typeof materialSchema>;
 
 export const netSchema = z.strictObject({
   name: nameSchema,
-  role: z.enum(['signal', 'ground']),
+  role: z.enum(['signal', 'ground']).describe('"ground" nets are the 0 V reference; "signal" nets get a row of the capacitance matrix'),
   /** Conductivity of the net's conductors in S/m; copper (5.8e7) when absent. */
-  conductivitySPerM: valueSchema.optional(),
+  conductivitySPerM: described("conductivity of the net's conductors in S/m; copper (5.8e7) when absent").optional(),
   /** Display colour, "#rrggbb"; the editor picks one when absent. */
   color: z
     .string()
@@ -93,52 +96,53 @@ const shapeBase = {
   /** Optional label shown in the editor. */
   label: z.string().max(LIMITS.nameLength).optional(),
   /** Net name: the shape is a perfect conductor of that net. */
-  conductor: nameSchema.optional(),
+  conductor: nameSchema.describe('net name: the shape is a perfect conductor of that net').optional(),
   /** Material id: the shape is a dielectric of that material. */
-  dielectric: idSchema.optional(),
+  dielectric: idSchema.describe('material id: the shape is a dielectric of that material').optional(),
 };
 
 export const rectSchema = z.strictObject({
   ...shapeBase,
   type: z.literal('rect'),
   /** Lower-left corner. */
-  x: valueSchema,
-  y: valueSchema,
-  width: valueSchema,
-  height: valueSchema,
-});
+  x: length('x of the lower-left corner'),
+  y: length('y of the lower-left corner'),
+  width: length('width, greater than 0'),
+  height: length('height, greater than 0'),
+}).describe('axis-aligned rectangle; (x, y) is its lower-left corner');
 export const circleSchema = z.strictObject({
   ...shapeBase,
   type: z.literal('circle'),
-  cx: valueSchema,
-  cy: valueSchema,
-  r: valueSchema,
-});
+  cx: length('x of the centre'),
+  cy: length('y of the centre'),
+  r: length('radius, greater than 0'),
+}).describe('disc');
 export const ringSchema = z.strictObject({
   ...shapeBase,
   type: z.literal('ring'),
-  cx: valueSchema,
-  cy: valueSchema,
-  rInner: valueSchema,
-  rOuter: valueSchema,
-});
+  cx: length('x of the centre'),
+  cy: length('y of the centre'),
+  rInner: length('inner radius, greater than 0 and smaller than rOuter'),
+  rOuter: length('outer radius'),
+}).describe('annulus; the hole is not part of the shape');
 export const polygonSchema = z.strictObject({
   ...shapeBase,
   type: z.literal('polygon'),
   points: z
     .array(z.tuple([valueSchema, valueSchema]))
     .min(3, 'a polygon needs at least 3 points')
-    .max(LIMITS.polygonVertices, `a polygon may have at most ${LIMITS.polygonVertices} points`),
-});
+    .max(LIMITS.polygonVertices, `a polygon may have at most ${LIMITS.polygonVertices} points`)
+    .describe("corner points [x, y] in the section's units; the polygon closes by itself and must not intersect itself"),
+}).describe('closed simple polygon');
 /** Axis-aligned conductor of zero thickness (foil, idealised plate). */
 export const stripSchema = z.strictObject({
   ...shapeBase,
   type: z.literal('strip'),
-  x1: valueSchema,
-  y1: valueSchema,
-  x2: valueSchema,
-  y2: valueSchema,
-});
+  x1: length('x of one end'),
+  y1: length('y of one end'),
+  x2: length('x of the other end'),
+  y2: length('y of the other end (y2 = y1 or x2 = x1: horizontal or vertical)'),
+}).describe('conductor of zero thickness (foil, idealised plate), horizontal or vertical');
 
 export const shapeSchema = z
   .discriminatedUnion('type', [rectSchema, circleSchema, ringSchema, polygonSchema, stripSchema])
@@ -163,9 +167,9 @@ export type Shape = z.infer<typeof shapeSchema>;
 export type ShapeType = Shape['type'];
 
 export const boundarySideSchema = z.discriminatedUnion('type', [
-  z.strictObject({ type: z.literal('open') }),
-  z.strictObject({ type: z.literal('ground'), at: valueSchema }),
-  z.strictObject({ type: z.literal('mirror'), at: valueSchema }),
+  z.strictObject({ type: z.literal('open') }).describe('the field extends to infinity on this side (total charge zero)'),
+  z.strictObject({ type: z.literal('ground'), at: length('position of the plane (x for left and right, y for bottom and top)') }).describe('an infinite ground plane along this line, part of the 0 V reference'),
+  z.strictObject({ type: z.literal('mirror'), at: length('position of the plane (x for left and right, y for bottom and top)') }).describe('a symmetry plane: no field crosses it; draw only the inner half'),
 ]);
 export type BoundarySide = z.infer<typeof boundarySideSchema>;
 
