@@ -33,7 +33,7 @@ export interface MeshParams {
 
 /** Finest-member parameters of the presets, in units of the structure size. */
 export const MESH_PRESET_PARAMS: Record<MeshPreset, MeshParams> = {
-  quick: { hSing: 4e-3, hDiel: 1.6e-2, hStruct: 0.05, nCurve: 12, mGap: 8, growth: 1.2, growthFar: 1.4, extent: 100 },
+  quick: { hSing: 1e-2, hDiel: 4e-2, hStruct: 0.06, nCurve: 10, mGap: 6, growth: 1.25, growthFar: 1.5, extent: 60 },
   standard: { hSing: 1e-3, hDiel: 4e-3, hStruct: 0.025, nCurve: 32, mGap: 16, growth: 1.1, growthFar: 1.25, extent: 200 },
   precise: { hSing: 2.5e-4, hDiel: 1e-3, hStruct: 0.0125, nCurve: 64, mGap: 32, growth: 1.05, growthFar: 1.15, extent: 400 },
 };
@@ -61,12 +61,54 @@ export interface MeshInput {
 interface Point {
   x: number;
   y: number;
+  /** Base spacing wanted at the point. */
   h: number;
+  /** Whether the field is singular there (the base spacing is scaled by the local size). */
+  singular: boolean;
+  /** Size of the point's own shape near it (thickness, edge length, radius). */
+  own: number;
+  shape: number;
 }
 interface Span {
   lo: number;
   hi: number;
   h: number;
+}
+type Outline = { segs: number[]; circles: number[] };
+
+function outlineOf(g: Geometry): Outline {
+  const segs: number[] = [];
+  const circles: number[] = [];
+  switch (g.type) {
+    case 'rect': {
+      const x0 = g.x, y0 = g.y, x1 = g.x + g.width, y1 = g.y + g.height;
+      segs.push(x0, y0, x1, y0, x1, y0, x1, y1, x1, y1, x0, y1, x0, y1, x0, y0);
+      break;
+    }
+    case 'strip':
+      segs.push(g.x1, g.y1, g.x2, g.y2);
+      break;
+    case 'polygon': {
+      const n = g.points.length;
+      for (let i = 0, j = n - 1; i < n; j = i++) segs.push(g.points[j][0], g.points[j][1], g.points[i][0], g.points[i][1]);
+      break;
+    }
+    case 'circle':
+      circles.push(g.cx, g.cy, g.r);
+      break;
+    case 'ring':
+      circles.push(g.cx, g.cy, g.rInner, g.cx, g.cy, g.rOuter);
+      break;
+  }
+  return { segs, circles };
+}
+
+function segDist(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
+  const dx = bx - ax, dy = by - ay;
+  const l2 = dx * dx + dy * dy;
+  let t = l2 > 0 ? ((px - ax) * dx + (py - ay) * dy) / l2 : 0;
+  t = t < 0 ? 0 : t > 1 ? 1 : t;
+  return Math.hypot(ax + t * dx - px, ay + t * dy - py);
 }
 
 /** Build the finest mesh of the family; coarser members are every 2nd and 4th node. */
@@ -76,26 +118,43 @@ export function buildMesh(input: MeshInput, p: MeshParams): { xs: Float64Array; 
   const yLines: AxisFeature[] = [];
   const xSpans: Span[] = [];
   const ySpans: Span[] = [];
+  const shapes = [...input.conductors, ...input.dielectrics];
+  const outlines = shapes.map(outlineOf);
 
-  const addShape = (g: Geometry, conductor: boolean) => {
+  shapes.forEach((g, si) => {
+    const conductor = si < input.conductors.length;
     const hc = conductor ? p.hSing : p.hDiel;
     switch (g.type) {
-      case 'rect':
-        for (const x of [g.x, g.x + g.width]) for (const y of [g.y, g.y + g.height]) points.push({ x, y, h: hc });
+      case 'rect': {
+        const own = Math.min(g.width, g.height);
+        for (const x of [g.x, g.x + g.width]) for (const y of [g.y, g.y + g.height]) points.push({ x, y, h: hc, singular: true, own, shape: si });
         break;
-      case 'strip':
-        points.push({ x: g.x1, y: g.y1, h: p.hSing }, { x: g.x2, y: g.y2, h: p.hSing });
+      }
+      case 'strip': {
+        const own = Math.abs(g.x2 - g.x1) + Math.abs(g.y2 - g.y1);
+        points.push({ x: g.x1, y: g.y1, h: p.hSing, singular: true, own, shape: si }, { x: g.x2, y: g.y2, h: p.hSing, singular: true, own, shape: si });
         break;
-      case 'polygon':
-        for (const [x, y] of g.points) points.push({ x, y, h: hc });
+      }
+      case 'polygon': {
+        const n = g.points.length;
+        for (let i = 0; i < n; i++) {
+          const [x, y] = g.points[i];
+          const prev = g.points[(i + n - 1) % n];
+          const next = g.points[(i + 1) % n];
+          const own = Math.min(Math.hypot(x - prev[0], y - prev[1]), Math.hypot(x - next[0], y - next[1]));
+          points.push({ x, y, h: hc, singular: true, own, shape: si });
+        }
         break;
+      }
       case 'circle':
       case 'ring': {
         const radii = g.type === 'circle' ? [g.r] : [g.rInner, g.rOuter];
+        const own = g.type === 'circle' ? g.r : Math.min(g.rInner, g.rOuter - g.rInner);
         for (const r of radii) {
           const h = r / p.nCurve;
-          xLines.push({ at: g.cx - r, h }, { at: g.cx + r, h });
-          yLines.push({ at: g.cy - r, h }, { at: g.cy + r, h });
+          for (const [x, y] of [[g.cx - r, g.cy], [g.cx + r, g.cy], [g.cx, g.cy - r], [g.cx, g.cy + r]]) {
+            points.push({ x, y, h, singular: false, own, shape: si });
+          }
           xSpans.push({ lo: g.cx - r, hi: g.cx + r, h });
           ySpans.push({ lo: g.cy - r, hi: g.cy + r, h });
         }
@@ -104,30 +163,58 @@ export function buildMesh(input: MeshInput, p: MeshParams): { xs: Float64Array; 
         break;
       }
     }
-  };
-  for (const g of input.conductors) addShape(g, true);
-  for (const g of input.dielectrics) addShape(g, false);
+  });
 
   const { left, right, bottom, top } = input.limits;
-  if (left !== undefined) xLines.push({ at: left, h: p.hStruct });
-  if (right !== undefined) xLines.push({ at: right, h: p.hStruct });
-  if (bottom !== undefined) yLines.push({ at: bottom, h: p.hStruct });
-  if (top !== undefined) yLines.push({ at: top, h: p.hStruct });
+  const planeLines: { axis: 0 | 1; at: number }[] = [];
+  if (left !== undefined) planeLines.push({ axis: 0, at: left });
+  if (right !== undefined) planeLines.push({ axis: 0, at: right });
+  if (bottom !== undefined) planeLines.push({ axis: 1, at: bottom });
+  if (top !== undefined) planeLines.push({ axis: 1, at: top });
 
-  // Gaps between neighbouring key coordinates limit the spacing there.
-  const xKeys = uniqueSorted([...points.map((q) => q.x), ...xLines.map((l) => l.at)]);
-  const yKeys = uniqueSorted([...points.map((q) => q.y), ...yLines.map((l) => l.at)]);
-  const gapX = (x: number) => localGap(xKeys, x) / p.mGap;
-  const gapY = (y: number) => localGap(yKeys, y) / p.mGap;
+  // Local sizes at each point: `gap`, the distance to every other conductor outline and plane
+  // (for a polygon also its own non-adjacent edges), `gapD` the same to dielectric outlines,
+  // and `own`, its own shape's size there. Singular points get spacing hSing × min(1, gap);
+  // every point gets ≤ min(gap, gapD, own)/mGap, so each gap and each thin feature holds at
+  // least mGap cells on the finest mesh.
+  const nCond = input.conductors.length;
   for (const q of points) {
-    // corner spacing relative to the local feature scale (the nearest other key line)
-    const local = Math.min(1, localGap(xKeys, q.x), localGap(yKeys, q.y));
-    const h = Math.min(q.h * local, gapX(q.x), gapY(q.y));
+    let gap = Infinity;
+    let gapD = Infinity;
+    outlines.forEach((o, si) => {
+      const own = si === q.shape;
+      if (own && shapes[si].type !== 'polygon') return;
+      let best = Infinity;
+      const sg = o.segs;
+      for (let k = 0; k < sg.length; k += 4) {
+        if (own && ((sg[k] === q.x && sg[k + 1] === q.y) || (sg[k + 2] === q.x && sg[k + 3] === q.y))) continue;
+        const d = segDist(q.x, q.y, sg[k], sg[k + 1], sg[k + 2], sg[k + 3]);
+        if (d > 1e-9 && d < best) best = d;
+      }
+      const c = o.circles;
+      for (let k = 0; k < c.length; k += 3) {
+        const d = Math.abs(Math.hypot(q.x - c[k], q.y - c[k + 1]) - c[k + 2]);
+        if (d > 1e-9 && d < best) best = d;
+      }
+      if (si < nCond) gap = Math.min(gap, best);
+      else gapD = Math.min(gapD, best);
+    });
+    for (const l of planeLines) {
+      const d = Math.abs((l.axis === 0 ? q.x : q.y) - l.at);
+      if (d > 1e-9 && d < gap) gap = d;
+    }
+    const own = q.own > 0 ? q.own : Infinity;
+    const h = Math.min(q.singular ? q.h * Math.min(1, gap) : q.h, Math.min(gap, gapD, own) / p.mGap, p.hStruct);
     xLines.push({ at: q.x, h });
     yLines.push({ at: q.y, h });
   }
-  for (const l of xLines) l.h = Math.min(l.h, gapX(l.at), p.hStruct);
-  for (const l of yLines) l.h = Math.min(l.h, gapY(l.at), p.hStruct);
+  // planes: limited by the gap to the nearest key line along their axis
+  const xKeys = uniqueSorted(xLines.map((l) => l.at));
+  const yKeys = uniqueSorted(yLines.map((l) => l.at));
+  for (const l of planeLines) {
+    const keys = l.axis === 0 ? xKeys : yKeys;
+    (l.axis === 0 ? xLines : yLines).push({ at: l.at, h: Math.min(p.hStruct, localGap(keys, l.at) / p.mGap) });
+  }
 
   // Domain: planes end it; open sides are carried extent sizes beyond every shape.
   const all = boxOf([...input.conductors, ...input.dielectrics], input.structure);

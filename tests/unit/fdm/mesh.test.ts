@@ -38,8 +38,8 @@ describe('graded mesh', () => {
       const i = Array.from(a).findIndex((x) => Math.abs(x - v) < 1e-12);
       return Math.min(i > 0 ? a[i] - a[i - 1] : Infinity, i < a.length - 1 ? a[i + 1] - a[i] : Infinity);
     };
-    // rect corner at y = 0.1 on a trace 0.05 thick: spacing ≤ hSing · 0.05
-    expect(near(ys, 0.1)).toBeLessThanOrEqual(p.hSing * 0.05 * 1.1); // placement rounds within ~10%
+    // rect corner at y = 0.1 on a trace 0.05 thick: spacing ≤ thickness / mGap
+    expect(near(ys, 0.1)).toBeLessThanOrEqual((0.05 / p.mGap) * 1.1); // placement rounds within ~10%
     expect(near(xs, -0.4)).toBeLessThanOrEqual(p.hSing * 1.1);
   });
 
