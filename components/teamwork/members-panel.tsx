@@ -65,7 +65,7 @@ export function MembersPanel({
       apiFetch(`/api/workspaces/${workspaceId}/members/${v.userId}`, { method: 'PATCH', json: { role: v.role } }),
     onSuccess: (_d, v) => {
       const m = members.find((x) => x.userId === v.userId);
-      setNotice({ tone: 'success', text: `${m?.name ?? 'The member'} is now ${v.role === 'owner' ? 'an owner' : `an ${v.role}`}.` });
+      setNotice({ tone: 'success', text: `${m?.name ?? 'The member'} is now ${v.role === 'viewer' ? 'a viewer' : `an ${v.role}`}.` });
       router.refresh();
     },
     onError: (e) => setNotice({ tone: 'danger', text: errorMessage(e) }),

@@ -1,0 +1,112 @@
+/**
+ * Team work (issue 7), members: the owner invites an address, the mail reaches the demo
+ * mailbox, the invitee follows the link, signs up and joins as editor; the owner makes them a
+ * viewer and both the UI and the API follow; a revoked invitation no longer works.
+ */
+import { expect, test, type Page } from '@playwright/test';
+import { MailboxPage } from './pages/mailbox-page';
+import { InvitePage, MembersPage } from './pages/members-page';
+import { WorkspacePage } from './pages/workspace-page';
+import { DEMO_WORKSPACE_NAME, unique } from './support/accounts';
+import { signInAs } from './support/session';
+
+function address(prefix: string) {
+  return `${unique(prefix).replace(/\s+/g, '-').toLowerCase()}@harrowlane.example`;
+}
+
+async function invitationLink(page: Page, email: string): Promise<string> {
+  const mailbox = new MailboxPage(page);
+  await mailbox.goto();
+  const mail = await mailbox.latestMailTo(email);
+  await expect(mail.getByTestId('mail-subject')).toContainText('invited you to');
+  const href = await mail.getByTestId('mail-link').first().getAttribute('href');
+  expect(href).toMatch(/\/invite\/[A-Za-z0-9_-]{43}$/);
+  return new URL(href!).pathname;
+}
+
+test('invite by e-mail → join as editor → owner makes them a viewer; UI and API follow', async ({ page, browser }) => {
+  const workspaceId = await signInAs(page, 'owner');
+  const members = new MembersPage(page);
+  await members.goto(workspaceId);
+  const email = address('pia-lund');
+  await members.invite(email, 'editor');
+
+  const link = await invitationLink(page, email);
+
+  // The invitee, in a browser of their own, signs up through the link.
+  const ctx = await browser.newContext();
+  const guest = await ctx.newPage();
+  await guest.goto(link);
+  const invite = new InvitePage(guest);
+  await expect(invite.root).toHaveAttribute('data-state', 'sign_up');
+  await expect(guest.getByTestId('invite-workspace')).toHaveText(DEMO_WORKSPACE_NAME);
+  await invite.signUp('Pia Lund', 'pia-lund-password');
+  await expect(guest).toHaveURL(new RegExp(`/w/${workspaceId}$`), { timeout: 30_000 });
+  const home = new WorkspacePage(guest);
+  await expect(home.title).toHaveText(DEMO_WORKSPACE_NAME);
+  await expect(home.newSection).toBeVisible(); // editors may create sections
+
+  // The owner sees them as an editor, with the invitation gone from the pending list.
+  await members.goto(workspaceId);
+  await expect(members.member(email)).toHaveAttribute('data-role', 'editor');
+  await expect(members.invitation(email)).toHaveCount(0);
+
+  // The owner makes them a viewer.
+  await members.setRole(email, 'viewer');
+  await expect(members.notice).toContainText('Pia Lund is now a viewer');
+
+  // UI: no create control any more. API: a write is refused with 403.
+  await home.goto(workspaceId);
+  await expect(home.newSection).toHaveCount(0);
+  const res = await guest.request.post(`/api/workspaces/${workspaceId}/sections`, {
+    data: { name: 'Should not exist', content: {} },
+  });
+  expect(res.status()).toBe(403);
+  // Reading still works.
+  expect((await guest.request.get(`/api/workspaces/${workspaceId}/sections`)).status()).toBe(200);
+
+  // The link does not work a second time.
+  await guest.goto(link);
+  await expect(invite.root).toHaveAttribute('data-state', 'accepted');
+  await ctx.close();
+
+  // Tidy up for other tests: remove the new member.
+  await members.goto(workspaceId);
+  page.once('dialog', (d) => void d.accept());
+  await members.member(email).getByTestId('member-remove').click();
+  await expect(members.member(email)).toHaveCount(0);
+});
+
+test('a revoked invitation no longer works', async ({ page, browser }) => {
+  const workspaceId = await signInAs(page, 'owner');
+  const members = new MembersPage(page);
+  await members.goto(workspaceId);
+  const email = address('jonas-brae');
+  await members.invite(email, 'viewer');
+  const link = await invitationLink(page, email);
+
+  await members.goto(workspaceId);
+  await members.invitation(email).getByTestId('invitation-revoke').click();
+  await expect(members.notice).toContainText('revoked');
+  await expect(members.invitation(email)).toHaveCount(0);
+
+  const ctx = await browser.newContext();
+  const guest = await ctx.newPage();
+  await guest.goto(link);
+  const invite = new InvitePage(guest);
+  await expect(invite.root).toHaveAttribute('data-state', 'revoked');
+  await expect(invite.error).toContainText('withdrawn');
+  await expect(invite.submit).toHaveCount(0);
+  await ctx.close();
+});
+
+test('the last owner cannot be demoted, with a clear message', async ({ page }) => {
+  const workspaceId = await signInAs(page, 'owner');
+  const members = new MembersPage(page);
+  await members.goto(workspaceId);
+  const owner = members.members.filter({ has: page.getByText('(you)') });
+  await owner.getByTestId('member-role').selectOption('viewer');
+  await expect(members.notice).toContainText('at least one owner');
+  await page.reload();
+  await expect(owner).toHaveAttribute('data-role', 'owner');
+});
