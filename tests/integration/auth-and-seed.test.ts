@@ -17,6 +17,7 @@ import { DEMO_ACCOUNTS, DEMO_WORKSPACE_NAME, OTHER_DEMO_ACCOUNT } from '@/lib/de
 import { getAuthOptions } from '@/lib/server/auth-options';
 import { signUp } from '@/lib/server/actions/auth';
 import { sectionSchema } from '@/lib/section/schema';
+import { parseSectionValue } from '@/lib/section/parse';
 import { createTestDb } from './helpers/db';
 
 let handle: DbHandle;
@@ -59,7 +60,13 @@ describe('demo seed', () => {
     expect(secs.length).toBeGreaterThanOrEqual(5);
     const revs = await handle.db.select().from(sectionRevisions);
     for (const r of revs) expect(sectionSchema.safeParse(r.content).success).toBe(true);
-    for (const s of secs) expect(revs.some((r) => r.id === s.latestRevisionId)).toBe(true);
+    for (const s of secs) {
+      const latest = revs.find((r) => r.id === s.latestRevisionId);
+      expect(latest, s.name).toBeDefined();
+      // Resolved and checked as the solver will see it: no errors (a real, solvable drawing).
+      const checked = parseSectionValue(latest!.content);
+      expect(checked.ok, `${s.name}: ${checked.ok ? '' : checked.message}`).toBe(true);
+    }
     expect(revs.some((r) => r.number > 1)).toBe(true); // some history to look at
   });
 

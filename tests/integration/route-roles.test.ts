@@ -219,6 +219,21 @@ describe('bodies and errors', () => {
     expect(big.json.error.code).toBe('too_large');
   });
 
+  it('saves a section in progress but reports its check errors; a clean one reports ok', async () => {
+    const { coaxSection } = await import('./helpers/fixtures');
+    const shorted = coaxSection();
+    // The core grown into the shield ring: two nets touching, a short circuit.
+    shorted.shapes[1] = { id: 'core', type: 'circle', cx: 0, cy: 0, r: 2, conductor: 'core' };
+    const params = { workspaceId: w.wsA };
+    const bad = await post('workspaces/[workspaceId]/sections', params, JSON.stringify({ name: 'Shorted', content: shorted }));
+    expect(bad.status).toBe(201);
+    const badChecks = (bad.json as unknown as { checks: { ok: boolean; stage?: string; issues?: { code: string }[] } }).checks;
+    expect(badChecks.ok).toBe(false);
+    expect(badChecks.stage).toBe('check');
+    const good = await post('workspaces/[workspaceId]/sections', params, JSON.stringify({ name: 'Clean', content: coaxSection() }));
+    expect((good.json as unknown as { checks: { ok: boolean } }).checks.ok).toBe(true);
+  });
+
   it('a stale baseRevisionId → 409 and nothing saved', async () => {
     const params = { workspaceId: w.wsA, sectionId: w.sectionA };
     const first = await post(`workspaces/[workspaceId]/sections/[sectionId]/revisions`, params, JSON.stringify({ content: (await import('./helpers/fixtures')).coaxSection(), baseRevisionId: w.revisionA }));

@@ -1,5 +1,6 @@
 import { insertSection, listSections } from '@/db/queries/sections';
 import { requireWorkspaceRole } from '@/lib/server/access';
+import { checkSavedSection } from '@/lib/server/section-checks';
 import { apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx, readParams } from '@/lib/server/http';
 import { createSectionSchema, listSectionsQuerySchema, MAX_SECTION_BODY_BYTES } from '@/lib/validations/section';
 
@@ -15,7 +16,10 @@ export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
   return json({ sections });
 });
 
-/** Create a section with its first revision (editors). */
+/**
+ * Create a section with its first revision (editors). The content must match the section
+ * schema (422); resolve/geometry problems do not block saving and come back as `checks`.
+ */
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
   const { workspaceId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
@@ -28,5 +32,5 @@ export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
     content: body.content,
     message: body.message,
   });
-  return json({ section, revision }, 201);
+  return json({ section, revision, checks: checkSavedSection(body.content) }, 201);
 });
