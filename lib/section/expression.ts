@@ -456,6 +456,11 @@ export function resolveVariables(vars: Readonly<Record<string, number | string>>
   const failed = new Set<string>();
 
   for (const name of names) {
+    if (name === '__proto__') {
+      errors.push({ name, message: `'__proto__' cannot be a variable name` });
+      failed.add(name);
+      continue;
+    }
     if (isReservedName(name)) {
       errors.push({ name, message: `variable '${name}': '${name}' is a built-in ${Object.hasOwn(CONSTANTS, name) ? 'constant' : 'function'} and cannot be a variable name` });
       failed.add(name);
