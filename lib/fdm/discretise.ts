@@ -128,6 +128,14 @@ export function discretise(input: DiscreteInput): Discretisation {
       else t = yb > ya ? b.y0 - ya : ya - b.y1;
       return Math.min(len, Math.max(t, 0));
     }
+    if (g.type === 'circle' || g.type === 'ring') {
+      // entry through the outer circle from outside, or through the inner one from the hole
+      const dxa = xa - g.cx, dya = ya - g.cy;
+      const fromHole = g.type === 'ring' && dxa * dxa + dya * dya < g.rInner * g.rInner;
+      const r = g.type === 'circle' ? g.r : fromHole ? g.rInner : g.rOuter;
+      const t = circleHit(dxa, dya, (xb - xa) / len, (yb - ya) / len, r, fromHole);
+      if (t >= 0 && t <= len) return t;
+    }
     let lo = 0, hi = 1;
     for (let it = 0; it < 60; it++) {
       const m = 0.5 * (lo + hi);
@@ -163,10 +171,29 @@ export function discretise(input: DiscreteInput): Discretisation {
       for (let i = 0; i < nx; i++) {
         const k = j * nx + i;
         if (nodeNet[k] >= 0) continue;
-        const nb = [i > 0 ? k - 1 : -1, i < nx - 1 ? k + 1 : -1, j > 0 ? k - nx : -1, j < ny - 1 ? k + nx : -1];
-        for (const q of nb) {
-          if (q < 0 || nodeShape[q] < 0) continue;
-          const h = q === k - 1 || q === k + 1 ? Math.abs(xs[q % nx] - xs[i]) : Math.abs(ys[(q - (q % nx)) / nx] - ys[j]);
+        for (let dir = 0; dir < 4; dir++) {
+          let q: number;
+          let h: number;
+          if (dir === 0) {
+            if (i === 0) continue;
+            q = k - 1;
+            h = xs[i] - xs[i - 1];
+          } else if (dir === 1) {
+            if (i === nx - 1) continue;
+            q = k + 1;
+            h = xs[i + 1] - xs[i];
+          } else if (dir === 2) {
+            if (j === 0) continue;
+            q = k - nx;
+            h = ys[j] - ys[j - 1];
+          } else {
+            if (j === ny - 1) continue;
+            q = k + nx;
+            h = ys[j + 1] - ys[j];
+          }
+          const sq = nodeShape[q];
+          // rect and strip surfaces lie on mesh lines: no free node sits just off them
+          if (sq < 0 || conductors[sq].geometry.type === 'rect' || conductors[sq].geometry.type === 'strip') continue;
           if (cutDistance(k, q) < THETA_MIN * h) {
             snapTo[k] = q;
             break;
@@ -336,6 +363,23 @@ export function discretise(input: DiscreteInput): Discretisation {
     cellEpsR,
     snapped,
   };
+}
+
+/**
+ * Distance along the unit direction (ux, uy) from a point at (dx, dy) relative to a circle's
+ * centre to the circle of radius r: the first crossing from outside (entering), or from inside
+ * the hole of a ring (`fromInside`, leaving the hole). −1 when there is none.
+ */
+function circleHit(dx: number, dy: number, ux: number, uy: number, r: number, fromInside: boolean): number {
+  const b = dx * ux + dy * uy;
+  const c = dx * dx + dy * dy - r * r;
+  const disc = b * b - c;
+  if (disc < 0) return -1;
+  const sq = Math.sqrt(disc);
+  if (fromInside) return -b + sq;
+  // smaller root, written to avoid cancellation
+  const t = b < 0 ? c / (-b + sq) : -b - sq;
+  return t >= 0 ? t : -1;
 }
 
 /** Series (harmonic) along rows (x) or columns (y), then parallel (arithmetic) across; NaN samples skipped. */
