@@ -1,9 +1,10 @@
 #!/usr/bin/env node
 /**
- * `npm run demo`: build the app if the build is missing or older than the sources, then start
- * it in demo mode (EDGEFIELD_DEMO=1) at http://localhost:${PORT:-3000}. At start the server
- * applies the migrations, seeds an empty database with the fictional demo team, starts the
- * demo mail catcher (EDGEFIELD_SMTP_PORT, default 2525) and prints the demo sign-ins.
+ * `npm run demo`: apply the migrations and seed an empty database with the fictional demo
+ * team, its sections and a few stored solves (scripts/seed-demo.ts); build the app if the
+ * build is missing or older than the sources; then start it in demo mode (EDGEFIELD_DEMO=1)
+ * at http://localhost:${PORT:-3000}. The server starts the demo mail catcher
+ * (EDGEFIELD_SMTP_PORT, default 2525) and prints the demo sign-ins.
  *
  * Environment: PORT, EDGEFIELD_DATA_DIR (default ./data), NEXT_DIST_DIR (default .next),
  * DATABASE_URL (optional PostgreSQL server), EDGEFIELD_SMTP_PORT.
@@ -57,6 +58,22 @@ function run(cmd, args) {
   const r = spawnSync(cmd, args, { stdio: 'inherit', env });
   if (r.status !== 0) {
     console.error(`demo: "${cmd} ${args.join(' ')}" failed (exit ${r.status ?? r.signal})`);
+    process.exit(r.status || 1);
+  }
+}
+
+// Migrate and seed before building and serving: the fictional team, its sections and a few
+// solved examples (solving takes seconds, so it happens here and not in the server). A data
+// folder held by another running Edgefield stops the demo here, with the reason.
+console.log('demo: preparing the database (migrations, demo data)');
+{
+  const r = spawnSync(process.execPath, ['--import', 'tsx', '--conditions=react-server', 'scripts/seed-demo.ts'], {
+    stdio: 'inherit',
+    env,
+  });
+  if (r.status === 3) process.exit(1);
+  if (r.status !== 0) {
+    console.error('demo: preparing the database failed');
     process.exit(r.status || 1);
   }
 }
