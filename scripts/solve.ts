@@ -108,6 +108,9 @@ function readable(file: string, units: string, r: SectionResult): string {
   out.push(`Edgefield solve of ${file}`);
   out.push(`  reference (0 V): ${r.reference.join(', ')}`);
   out.push(`  signal nets, in matrix order: ${r.nets.join(', ')}`);
+  if (r.symmetry) {
+    out.push(`  mirror boundary (${r.symmetry.mirrors.join(', ')}): the matrices are those of the drawn part; line and plate values are for the whole structure (${r.symmetry.factor} × the drawn part)`);
+  }
   out.push('');
   out.push(table('Capacitance per unit length, Maxwell form', r.nets, r.capacitance.maxwell, e.perEntry));
   out.push('');
@@ -122,7 +125,7 @@ function readable(file: string, units: string, r: SectionResult): string {
   if (r.line) {
     const l = r.line;
     out.push('');
-    out.push('Line values (one signal net, quasi-static):');
+    out.push(`Line values (one signal net, quasi-static${r.symmetry && r.symmetry.factor > 1 ? ', whole structure' : ''}):`);
     out.push(`  C'    = ${sig(l.capacitancePerM * 1e12, 6)} pF/m  ±${pct(e.relative)}`);
     out.push(`  L'    = ${sig(l.inductancePerM * 1e9, 6)} nH/m  ±${pct(e.relative)}`);
     out.push(`  Z0    = ${sig(l.z0Ohm, 6)} Ω  ±${pct(e.relative)}`);

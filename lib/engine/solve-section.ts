@@ -13,7 +13,8 @@
  *   Lines, 2nd ed., ch. 3).
  * - line values (exactly one signal net): L' = μ0 ε0 / C0, Z0 = 1/(c √(C C0)),
  *   εeff = C/C0, v = c/√εeff, delay = 1/v, with C0 the capacitance with every dielectric
- *   replaced by vacuum.
+ *   replaced by vacuum. With mirror boundaries the matrices are those of the drawn part
+ *   and the line values those of the whole structure (see mirrorSymmetry).
  * - plates: see plates.ts and twoTerminalCapacitance below.
  */
 import { solveProblem } from '../fdm/index';
@@ -81,6 +82,19 @@ export function lineValues(c: number, c0: number): LineValues {
   };
 }
 
+/**
+ * Mirror boundaries of a section and the factor from the drawn part to the whole
+ * structure: 2 per axis with one mirror; two mirrors facing each other make a periodic
+ * cell (factor 1 on that axis). Undefined when there is no mirror.
+ */
+export function mirrorSymmetry(section: ResolvedSection): SectionResult['symmetry'] {
+  const b = section.boundary;
+  const mirrors = (['left', 'right', 'bottom', 'top'] as const).filter((k) => b[k].type === 'mirror');
+  if (mirrors.length === 0) return undefined;
+  const axis = (lo: 'left' | 'bottom', hi: 'right' | 'top') => (mirrors.includes(lo) !== mirrors.includes(hi) ? 2 : 1);
+  return { mirrors: [...mirrors], factor: axis('left', 'right') * axis('bottom', 'top') };
+}
+
 /** Validate a section (throws SectionError) and return its resolved form and warnings. */
 export function validateSection(section: Section | unknown): { resolved: ResolvedSection; warnings: SectionIssue[] } {
   const parsed = parseSectionValue(section);
@@ -120,7 +134,15 @@ export function buildResult(
     warnings: [...extraWarnings, ...sol.warnings],
   };
 
-  if (nets.length === 1) result.line = lineValues(sol.maxwell[0]![0]!, sol.vacuum[0]![0]!);
+  const sym = mirrorSymmetry(resolved);
+  if (sym) {
+    result.symmetry = sym;
+    if (sym.factor === 1) {
+      result.warnings.push('two mirror boundaries face each other: the section is one cell of a periodic array, and every value is per cell');
+    }
+  }
+  const factor = sym?.factor ?? 1;
+  if (nets.length === 1) result.line = lineValues(factor * sol.maxwell[0]![0]!, factor * sol.vacuum[0]![0]!);
 
   const pair = detectPlates(resolved);
   if (pair) {

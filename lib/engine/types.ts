@@ -73,7 +73,14 @@ export interface SectionResult {
     vacuum: number[][];
   };
   errorEstimate: ErrorEstimate;
-  /** Present when there is exactly one signal net. */
+  /**
+   * Present when a boundary side is a mirror: the drawing is part of a symmetric
+   * structure. `capacitance` is that of the drawn part; `line` (and `plates`, see
+   * `plates.mirrored`) describe the whole structure, `factor` times the drawn part's
+   * capacitance (2 per mirror axis; 1 when two mirrors face each other, a periodic cell).
+   */
+  symmetry?: { mirrors: ('left' | 'right' | 'bottom' | 'top')[]; factor: number };
+  /** Present when there is exactly one signal net; for the whole structure when mirrored. */
   line?: LineValues;
   /** Present when the section is a facing plate pair. */
   plates?: PlatesValues;

@@ -300,6 +300,13 @@ describe('mirror boundary', () => {
         const half = solve(buildSym(p, true));
         expectMaxwellProperties(half);
         expectAgree(whole, half, 2, 'whole vs 2 × half');
+        // The line values of the half describe the whole structure.
+        expect(half.symmetry).toEqual({ mirrors: ['left'], factor: 2 });
+        if (whole.line) {
+          const tol = whole.errorEstimate.relative + half.errorEstimate.relative;
+          expect(Math.abs(half.line!.z0Ohm / whole.line.z0Ohm - 1)).toBeLessThanOrEqual(tol);
+          expect(Math.abs(half.line!.epsEff / whole.line.epsEff - 1)).toBeLessThanOrEqual(2 * tol);
+        }
       }),
       { numRuns: 6, seed: SEED + 1 },
     );

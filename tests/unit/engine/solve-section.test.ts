@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { detectPlates, epsRAt } from '@/lib/engine/plates';
-import { lineValues, mutualForm, solveSection, twoTerminalCapacitance, SectionError, BOUNDARY_REFERENCE } from '@/lib/engine/solve-section';
+import { lineValues, mirrorSymmetry, mutualForm, solveSection, twoTerminalCapacitance, SectionError, BOUNDARY_REFERENCE } from '@/lib/engine/solve-section';
 import { toProblem } from '@/lib/engine/to-problem';
 import { EPS0, MU0, C_LIGHT } from '@/lib/engine/constants';
 import { SolveCancelledError } from '@/lib/fdm/types';
@@ -102,6 +102,17 @@ describe('result formulas', () => {
     const filled = lineValues(2.1 * c, c);
     expect(rel(filled.velocityMPerS, C_LIGHT / Math.sqrt(2.1))).toBeLessThan(1e-12);
     expect(rel(filled.delaySPerM, Math.sqrt(2.1) / C_LIGHT)).toBeLessThan(1e-12);
+  });
+});
+
+describe('mirror symmetry factor', () => {
+  const withBoundary = (boundary: Record<string, unknown>) =>
+    mirrorSymmetry(resolved({ nets: [{ name: 'a', role: 'signal' }], shapes: [{ id: 'w', type: 'circle', cx: 2, cy: 2, r: 1, conductor: 'a' }], boundary: { ...boundary, top: { type: 'ground', at: 10 } } }));
+  it('2 per mirror axis, 1 for facing mirrors (a periodic cell), none without mirrors', () => {
+    expect(withBoundary({})).toBeUndefined();
+    expect(withBoundary({ left: { type: 'mirror', at: 0 } })).toEqual({ mirrors: ['left'], factor: 2 });
+    expect(withBoundary({ left: { type: 'mirror', at: 0 }, bottom: { type: 'mirror', at: 0 } })).toEqual({ mirrors: ['left', 'bottom'], factor: 4 });
+    expect(withBoundary({ left: { type: 'mirror', at: 0 }, right: { type: 'mirror', at: 5 } })).toEqual({ mirrors: ['left', 'right'], factor: 1 });
   });
 });
 
