@@ -93,6 +93,8 @@ test('editor creates a section, finds it by search, renames and deletes it', asy
 
   await section.deleteSection();
   await expect(page).toHaveURL(new RegExp(`/w/${workspaceId}$`));
+  await expect(home.title).toBeVisible();
+  await expect(home.row(renamed)).toHaveCount(0);
   await home.search.fill(renamed);
   await expect(page.getByTestId('sections-empty')).toBeVisible();
 });

@@ -201,8 +201,8 @@ export function SectionHeader({
               del.mutate(undefined, {
                 onSuccess: () => {
                   setConfirmDelete(false);
+                  // The workspace home is rendered on the server at each visit, so it lists the change.
                   router.push(`/w/${workspaceId}`);
-                  router.refresh();
                 },
               })
             }

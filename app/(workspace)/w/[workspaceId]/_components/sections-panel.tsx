@@ -194,7 +194,11 @@ export function SectionsPanel({
           </EmptyState>
         )
       ) : (
-        <table className="w-full table-fixed text-left" aria-busy={query.isFetching || undefined}>
+        <table
+          className={`w-full table-fixed text-left transition-opacity ${query.isPlaceholderData ? 'opacity-60' : ''}`}
+          aria-busy={query.isFetching || undefined}
+          data-stale={query.isPlaceholderData ? 'true' : undefined}
+        >
           <thead className="border-b border-line bg-surface-muted text-xs font-medium text-ink-muted">
             <tr>
               <th scope="col" className="px-5 py-2 font-medium">
