@@ -33,23 +33,30 @@ import {
   type Transfer,
 } from './multigrid-transfer';
 
+
 export interface HierarchyOptions {
   /** Largest number of grid levels (1 = no coarsening: exact banded solve of the whole grid). @default 40 */
   maxLevels?: number;
   /** Stop coarsening when a level has at most this many nodes (solved by banded Cholesky). @default 4096 */
   coarsestNodes?: number;
-  /** Alternating line sweeps before and after each coarse-grid correction. @default 1 */
+  /** Alternating line sweeps before and after each coarse-grid correction on the finest level. @default 1 */
   sweeps?: number;
   /**
-   * Cycle below the finest level: 'V' (one coarse correction per level), 'W' (two on every
-   * level below the finest), or 'auto': W when at least 1% of the fine nodes couple at least
-   * `anisotropyThreshold` times more strongly along one axis than the other (stretched cells),
-   * V otherwise. Galerkin operators of strongly anisotropic problems lose some accuracy per
-   * level; the second coarse correction restores most of it at about 15–20% more work.
-   * @default 'auto'
+   * The same on the coarser levels. Galerkin operators of strongly stretched meshes lose some
+   * accuracy per level, which a second sweep there largely restores at little cost.
+   * @default 1, or 2 on stretched meshes (see anisotropyThreshold)
    */
-  cycle?: 'V' | 'W' | 'auto';
-  /** Coupling ratio that counts a node as anisotropic for cycle 'auto' (30 ≈ cell aspect ratio 5.5). @default 30 */
+  coarseSweeps?: number;
+  /**
+   * 'V' (one coarse correction per level) or 'W' (two on every level below the finest; fewer
+   * iterations on strongly stretched meshes, but more work per iteration). @default 'V'
+   */
+  cycle?: 'V' | 'W';
+  /**
+   * A mesh counts as stretched when at least 1% of the nodes with four couplings couple at
+   * least this many times more strongly along one axis than along the other (30 ≈ cell aspect
+   * ratio 5.5); stretched meshes get `coarseSweeps` = 2 by default. @default 30
+   */
   anisotropyThreshold?: number;
 }
 
@@ -77,7 +84,7 @@ export interface Hierarchy {
   /** The fine operator as passed in (not copied). */
   op: Operator5;
   levels: MgLevel[];
-  /** transfers[l] connects levels[l] (fine) and levels[l+1] (coarse). */
+  /** transfers[l] connects levels[l] (fine) and levels[l+1] (coarse), full coarsening. */
   transfers: Transfer[];
   coarse: BandCholesky;
   sweepsPerLevel: Int32Array;
@@ -255,13 +262,15 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     /** @default 40 */ maxLevels = 40,
     /** @default 4096 */ coarsestNodes = 4096,
     /** @default 1 */ sweeps = 1,
-    /** @default 'auto' */ cycle: cycleType = 'auto',
+    /** @default 'V' */ cycle: cycleType = 'V',
     /** @default 30 */ anisotropyThreshold = 30,
+    coarseSweeps,
   } = opts;
   if (!Number.isInteger(maxLevels) || maxLevels < 1) throw new RangeError('maxLevels must be an integer >= 1');
   if (!Number.isInteger(sweeps) || sweeps < 1) throw new RangeError('sweeps must be an integer >= 1');
+  if (coarseSweeps !== undefined && (!Number.isInteger(coarseSweeps) || coarseSweeps < 1)) throw new RangeError('coarseSweeps must be an integer >= 1');
   if (!(coarsestNodes >= 1)) throw new RangeError('coarsestNodes must be >= 1');
-  if (cycleType !== 'V' && cycleType !== 'W' && cycleType !== 'auto') throw new RangeError("cycle must be 'V', 'W' or 'auto'");
+  if (cycleType !== 'V' && cycleType !== 'W') throw new RangeError("cycle must be 'V' or 'W'");
   if (!(anisotropyThreshold >= 1)) throw new RangeError('anisotropyThreshold must be >= 1');
   checkOperator(op);
   const { nx, ny } = op;
@@ -283,11 +292,12 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     if (op.w[k] === 0 && op.e[k] === 0 && op.s[k] === 0 && op.n[k] === 0) fixedList.push(k);
   }
   const anisotropicFraction = measureAnisotropy(op, anisotropyThreshold);
-  const useW = cycleType === 'W' || (cycleType === 'auto' && anisotropicFraction >= 0.01);
+  const stretched = anisotropicFraction >= 0.01;
+  const useW = cycleType === 'W';
   const padLen = size + 2 * levels[0].off;
   return {
     nx, ny, op, levels, transfers, coarse,
-    sweepsPerLevel: Int32Array.from(levels, () => sweeps),
+    sweepsPerLevel: Int32Array.from(levels, (_, l) => (l === 0 ? sweeps : coarseSweeps ?? (stretched ? 2 : 1))),
     gammaPerLevel: Int32Array.from(levels, (_, l) => (l >= 1 && useW ? 2 : 1)),
     anisotropicFraction,
     fixed: Int32Array.from(fixedList),
@@ -334,9 +344,9 @@ function cycle(h: Hierarchy, l: number): void {
     coarseSolve(h.coarse, lv);
     return;
   }
-  const t = transfers[l];
   const cl = levels[l + 1];
   const sweeps = h.sweepsPerLevel[l];
+  const t = transfers[l];
   preSmooth(lv, sweeps);
   // the last step solved the odd columns exactly: their residual is zero
   residualRestrictEven(lv, t, cl.b);

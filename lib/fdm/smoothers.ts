@@ -69,27 +69,60 @@ export function factorLines(lv: SweepLevel): void {
 /**
  * Zebra x-line Gauss–Seidel on rows j ≡ parity (mod 2): solves each such row exactly with the
  * other rows held fixed. With `zeroGuess` the neighbouring rows are taken as zero (first sweep
- * from a zero start; they are not read). Writes lv.x on those rows only.
+ * from a zero start; they are not read). Writes lv.x on those rows only. Rows of one colour are
+ * independent, so they are eliminated two at a time: the two recurrences overlap in the CPU.
  */
 export function sweepRows(lv: SweepLevel, parity: number, zeroGuess: boolean): void {
-  const { nx, ny, off, w, s, xInv: inv, xU: u, x, b } = lv;
+  const { ny } = lv;
+  let j = parity;
+  for (; j + 2 < ny; j += 4) sweepRowPair(lv, j, j + 2, zeroGuess);
+  if (j < ny) sweepRowPair(lv, j, -1, zeroGuess);
+}
+
+/** Line solves of rows j1 and j2 (j2 = −1: only j1); the rows must not be neighbours. Writes lv.x. */
+function sweepRowPair(lv: SweepLevel, j1: number, j2: number, zeroGuess: boolean): void {
+  const { nx, off, w, s, xInv: inv, xU: u, x, b } = lv;
   const sw = lv.sw, se = lv.se as Float64Array;
-  for (let j = parity; j < ny; j += 2) {
-    const r = off + j * nx;
-    const end = r + nx;
-    let g = 0;
-    if (zeroGuess) {
-      for (let kk = r; kk < end; kk++) {
-        g = (b[kk] + w[kk] * g) * inv[kk];
-        x[kk] = g;
-      }
-    } else if (sw === null) {
-      for (let kk = r; kk < end; kk++) {
-        g = (b[kk] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] + w[kk] * g) * inv[kk];
-        x[kk] = g;
+  const r1 = off + j1 * nx;
+  const d = j2 >= 0 ? (j2 - j1) * nx : 0; // second row = first + d
+  const two = j2 >= 0;
+  let g1 = 0, g2 = 0;
+  if (zeroGuess) {
+    if (two) {
+      for (let kk = r1; kk < r1 + nx; kk++) {
+        const k2 = kk + d;
+        g1 = (b[kk] + w[kk] * g1) * inv[kk];
+        g2 = (b[k2] + w[k2] * g2) * inv[k2];
+        x[kk] = g1;
+        x[k2] = g2;
       }
     } else {
-      for (let kk = r; kk < end; kk++) {
+      for (let kk = r1; kk < r1 + nx; kk++) {
+        g1 = (b[kk] + w[kk] * g1) * inv[kk];
+        x[kk] = g1;
+      }
+    }
+  } else if (sw === null) {
+    if (two) {
+      for (let kk = r1; kk < r1 + nx; kk++) {
+        const k2 = kk + d;
+        g1 = (b[kk] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] + w[kk] * g1) * inv[kk];
+        g2 = (b[k2] + s[k2] * x[k2 - nx] + s[k2 + nx] * x[k2 + nx] + w[k2] * g2) * inv[k2];
+        x[kk] = g1;
+        x[k2] = g2;
+      }
+    } else {
+      for (let kk = r1; kk < r1 + nx; kk++) {
+        g1 = (b[kk] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] + w[kk] * g1) * inv[kk];
+        x[kk] = g1;
+      }
+    }
+  } else {
+    const rows = two ? 2 : 1;
+    for (let q = 0; q < rows; q++) {
+      const r = r1 + q * d;
+      let g = 0;
+      for (let kk = r; kk < r + nx; kk++) {
         const f =
           b[kk] +
           s[kk] * x[kk - nx] +
@@ -102,7 +135,17 @@ export function sweepRows(lv: SweepLevel, parity: number, zeroGuess: boolean): v
         x[kk] = g;
       }
     }
-    for (let kk = end - 2; kk >= r; kk--) x[kk] += u[kk] * x[kk + 1];
+    g1 = g2 = 0;
+  }
+  // back substitution
+  if (two) {
+    for (let kk = r1 + nx - 2; kk >= r1; kk--) {
+      const k2 = kk + d;
+      x[kk] += u[kk] * x[kk + 1];
+      x[k2] += u[k2] * x[k2 + 1];
+    }
+  } else {
+    for (let kk = r1 + nx - 2; kk >= r1; kk--) x[kk] += u[kk] * x[kk + 1];
   }
 }
 

@@ -1,0 +1,88 @@
+/**
+ * Shared measurement of the solver cases: set-up + solve of one linear system with the
+ * multigrid-preconditioned CG to relative residual 1e-8, repeated, medians reported.
+ * workUnits = solveMs / matvecMs, matvecMs = one applyOperator on the same operator (median of
+ * many, measured around the solves so that both see the same machine load).
+ */
+import { setupHierarchy, solve } from '../../lib/fdm/multigrid';
+import { applyOperator } from '../../lib/fdm/operator';
+import type { LinearSystem } from './systems';
+
+export const BENCH_TOLERANCE = 1e-8;
+
+export interface SolverCaseResult {
+  [key: string]: unknown;
+  unknowns: number;
+  setupMs: number;
+  solveMs: number;
+  matvecMs: number;
+  workUnits: number;
+  iterations: number;
+  relResidual: number;
+}
+
+export function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
+}
+
+const round = (v: number, digits: number) => Number(v.toFixed(digits));
+
+/** Times matvecs on `sys`; returns the individual timings in ms. */
+function timeMatvecs(sys: LinearSystem, count: number, out: Float64Array): number[] {
+  const t: number[] = [];
+  for (let r = 0; r < count; r++) {
+    const t0 = performance.now();
+    applyOperator(sys.op, sys.rhs, out);
+    t.push(performance.now() - t0);
+  }
+  return t;
+}
+
+/** True relative residual ‖b − A x‖ / ‖b‖. */
+export function trueRelResidual(sys: LinearSystem, x: Float64Array): number {
+  const q = new Float64Array(x.length);
+  applyOperator(sys.op, x, q);
+  let rr = 0, bb = 0;
+  for (let k = 0; k < x.length; k++) {
+    rr += (sys.rhs[k] - q[k]) ** 2;
+    bb += sys.rhs[k] ** 2;
+  }
+  return Math.sqrt(rr / bb);
+}
+
+/** Runs set-up + solve `repeats` times (after one warm-up run) and reports medians. */
+export function measureSolver(sys: LinearSystem, repeats = 3): SolverCaseResult {
+  const out = new Float64Array(sys.rhs.length);
+  const mv: number[] = [];
+  // warm-up: compiles the kernels at this size
+  timeMatvecs(sys, 3, out);
+  solve(setupHierarchy(sys.op), sys.rhs, { tolerance: BENCH_TOLERANCE });
+  const setups: number[] = [], solves: number[] = [], iters: number[] = [];
+  let relResidual = 0;
+  for (let r = 0; r < repeats; r++) {
+    mv.push(...timeMatvecs(sys, 5, out));
+    const t0 = performance.now();
+    const h = setupHierarchy(sys.op);
+    const t1 = performance.now();
+    const res = solve(h, sys.rhs, { tolerance: BENCH_TOLERANCE });
+    const t2 = performance.now();
+    mv.push(...timeMatvecs(sys, 5, out));
+    setups.push(t1 - t0);
+    solves.push(t2 - t1);
+    iters.push(res.iterations);
+    relResidual = Math.max(relResidual, trueRelResidual(sys, res.x));
+  }
+  const matvecMs = median(mv);
+  const solveMs = median(solves);
+  return {
+    unknowns: sys.unknowns,
+    setupMs: round(median(setups), 1),
+    solveMs: round(solveMs, 1),
+    matvecMs: round(matvecMs, 3),
+    workUnits: round(solveMs / matvecMs, 1),
+    iterations: median(iters),
+    relResidual: Number(relResidual.toExponential(2)),
+  };
+}
