@@ -3,6 +3,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { parseSectionFile } from '@/lib/section/parse';
 import { sectionSchemaJson } from '@/lib/section/json-schema';
+import { Ajv2020 } from 'ajv/dist/2020';
 import { solveSection } from '@/lib/engine/solve-section';
 import type { SectionResult } from '@/lib/engine/types';
 
@@ -80,3 +81,33 @@ function cohnZ0(w: number, b: number, epsR: number): number {
   const k = 1 / Math.cosh((Math.PI * w) / (2 * b));
   return ((30 * Math.PI) / Math.sqrt(epsR)) * (ellipK(k) / ellipK(Math.sqrt(1 - k * k)));
 }
+
+describe('docs/section.schema.json as a JSON Schema (checked with Ajv, draft 2020-12)', () => {
+  const schema = JSON.parse(readFileSync(path.join(root, 'docs/section.schema.json'), 'utf8'));
+  const ajv = new Ajv2020({ allErrors: true, strict: false });
+  const validate = ajv.compile(schema);
+  const md = readFileSync(path.join(root, 'docs/section-format.md'), 'utf8');
+  const blocks = [...md.matchAll(/```json\n([\s\S]*?)```/g)].map((m) => m[1]!);
+  const samples = ['coax', 'plates', 'twin-wires'].map((n) => readFileSync(`/work/shared/samples/${n}.section.json`, 'utf8'));
+
+  it('accepts every documentation example and shared sample', () => {
+    for (const text of [...blocks, ...samples]) {
+      const ok = validate(JSON.parse(text));
+      expect(ok ? [] : validate.errors).toEqual([]);
+    }
+  });
+
+  it('refuses structural mistakes', () => {
+    const good = JSON.parse(samples[0]!);
+    const bad = [
+      { ...good, format: 'edgefield.section/2' },
+      { ...good, units: 'cm' },
+      { ...good, extra: 1 },
+      { ...good, shapes: [{ ...good.shapes[0], type: 'blob' }] },
+      { ...good, shapes: [{ ...good.shapes[1], r: null }] },
+      { ...good, nets: [] },
+      { ...good, boundary: { left: { type: 'ground' } } },
+    ];
+    for (const b of bad) expect(validate(b)).toBe(false);
+  });
+});
