@@ -376,6 +376,32 @@ function matvecDot(lv: MgLevel, x: Float64Array, out: Float64Array): number {
 }
 
 /**
+ * p = z + beta·p, then out = A p; returns p·out. One pass: row j+1 of p is updated just before
+ * row j of the product needs it. Writes p and out inside the grid.
+ */
+function updateMatvecDot(lv: MgLevel, z: Float64Array, beta: number, p: Float64Array, out: Float64Array): number {
+  const { nx, ny, off, c, w, s } = lv;
+  const update = (j: number) => {
+    const r = off + j * nx;
+    if (beta === 0) for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk];
+    else for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk] + beta * p[kk];
+  };
+  update(0);
+  let d = 0;
+  for (let j = 0; j < ny; j++) {
+    if (j + 1 < ny) update(j + 1);
+    const r = off + j * nx;
+    for (let kk = r; kk < r + nx; kk++) {
+      const pk = p[kk];
+      const v = c[kk] * pk - w[kk] * p[kk - 1] - w[kk + 1] * p[kk + 1] - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
+      out[kk] = v;
+      d += pk * v;
+    }
+  }
+  return d;
+}
+
+/**
  * Solves A x = rhs by multigrid-preconditioned CG. Tolerance is relative to ‖rhs‖ (absolute
  * when rhs = 0); convergence is confirmed on the true residual b − A x. Calls onIteration after
  * each iteration (returning false stops), checks isCancelled between iterations and then throws
@@ -427,7 +453,24 @@ export function solve(
     return Math.sqrt(rr) / scale;
   };
   const norms = new Float64Array(maxIterations + 1);
-  let rel = trueResidual();
+  let rel: number;
+  if (x0 === undefined) {
+    // x is zero except on the decoupled (fixed) nodes, where A x = rhs and nobody couples to
+    // them: the residual is rhs elsewhere and zero there, no product needed
+    let rr = 0;
+    for (let k = 0; k < size; k++) {
+      rp[k + off] = rhs[k];
+      rr += rhs[k] * rhs[k];
+    }
+    for (let q = 0; q < fixed.length; q++) {
+      const k = fixed[q];
+      rr -= rhs[k] * rhs[k];
+      rp[k + off] = 0;
+    }
+    rel = Math.sqrt(Math.max(rr, 0)) / scale;
+  } else {
+    rel = trueResidual();
+  }
   norms[0] = rel;
   const rel0 = rel;
   let it = 0;
@@ -439,15 +482,11 @@ export function solve(
     applyPreconditioner(h);
     let rzNew = 0;
     for (let k = off; k < off + size; k++) rzNew += rp[k] * zp[k];
-    if (restart) {
-      for (let k = off; k < off + size; k++) pp[k] = zp[k];
-      restart = false;
-    } else {
-      const beta = rzNew / rz;
-      for (let k = off; k < off + size; k++) pp[k] = zp[k] + beta * pp[k];
-    }
+    const beta = restart ? 0 : rzNew / rz;
+    restart = false;
     rz = rzNew;
-    const pAp = matvecDot(lv0, pp, qp);
+    // p = z + beta p and q = A p in one pass
+    const pAp = updateMatvecDot(lv0, zp, beta, pp, qp);
     if (!(pAp > 0)) break; // breakdown: the residual is zero to round-off or A is singular here
     const alpha = rz / pAp;
     let rr = 0;

@@ -117,25 +117,28 @@ function sweepRowPair(lv: SweepLevel, j1: number, j2: number, zeroGuess: boolean
         x[kk] = g1;
       }
     }
-  } else {
-    const rows = two ? 2 : 1;
-    for (let q = 0; q < rows; q++) {
-      const r = r1 + q * d;
-      let g = 0;
-      for (let kk = r; kk < r + nx; kk++) {
-        const f =
-          b[kk] +
-          s[kk] * x[kk - nx] +
-          s[kk + nx] * x[kk + nx] +
-          sw[kk] * x[kk - nx - 1] +
-          se[kk] * x[kk - nx + 1] +
-          se[kk + nx - 1] * x[kk + nx - 1] +
-          sw[kk + nx + 1] * x[kk + nx + 1];
-        g = (f + w[kk] * g) * inv[kk];
-        x[kk] = g;
-      }
+  } else if (two) {
+    for (let kk = r1; kk < r1 + nx; kk++) {
+      const k2 = kk + d;
+      const f1 =
+        b[kk] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] +
+        sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+      const f2 =
+        b[k2] + s[k2] * x[k2 - nx] + s[k2 + nx] * x[k2 + nx] +
+        sw[k2] * x[k2 - nx - 1] + se[k2] * x[k2 - nx + 1] + se[k2 + nx - 1] * x[k2 + nx - 1] + sw[k2 + nx + 1] * x[k2 + nx + 1];
+      g1 = (f1 + w[kk] * g1) * inv[kk];
+      g2 = (f2 + w[k2] * g2) * inv[k2];
+      x[kk] = g1;
+      x[k2] = g2;
     }
-    g1 = g2 = 0;
+  } else {
+    for (let kk = r1; kk < r1 + nx; kk++) {
+      const f =
+        b[kk] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] +
+        sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+      g1 = (f + w[kk] * g1) * inv[kk];
+      x[kk] = g1;
+    }
   }
   // back substitution
   if (two) {
