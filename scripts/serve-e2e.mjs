@@ -62,6 +62,16 @@ for (const sig of ['SIGINT', 'SIGTERM', 'SIGHUP']) {
     setTimeout(() => child.kill('SIGKILL'), 8000).unref();
   });
 }
+// If whoever started us dies without stopping us (a killed test run), do not linger as an orphan.
+const parent = process.ppid;
+setInterval(() => {
+  if (process.ppid !== parent) {
+    console.error('serve-e2e: parent process gone; stopping the server');
+    child.kill('SIGTERM');
+    setTimeout(() => child.kill('SIGKILL'), 8000).unref();
+  }
+}, 2000).unref();
+
 child.on('exit', (code, signal) => {
   cleanup();
   process.exit(code ?? (signal ? 0 : 1));

@@ -16,7 +16,7 @@ export function Textarea({ className, ...rest }: ComponentProps<'textarea'>) {
 }
 
 export function Select({ className, ...rest }: ComponentProps<'select'>) {
-  return <select className={cn(control, 'h-9 pr-8', className)} {...rest} />;
+  return <select className={cn(control, 'select-chevron h-9 pr-8', className)} {...rest} />;
 }
 
 export function Label({ className, ...rest }: ComponentProps<'label'>) {

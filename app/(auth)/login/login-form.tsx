@@ -214,8 +214,9 @@ export function LoginForm({
                   <p className="flex items-center gap-2 text-sm font-medium text-ink">
                     {a.name} <RoleBadge role={a.role} />
                   </p>
-                  <p className="num truncate text-xs text-ink-muted">
-                    {a.email} · {a.password}
+                  <p className="num truncate text-xs text-ink-muted">{a.email}</p>
+                  <p className="num text-xs text-ink-muted">
+                    <span className="font-sans">password</span> {a.password}
                   </p>
                 </div>
                 <Button

@@ -118,7 +118,7 @@ export function SectionsPanel({
           />
         </div>
         <div className="flex shrink-0 items-center gap-1.5">
-          <label htmlFor={`${id}-sort`} className="text-sm text-ink-muted">
+          <label htmlFor={`${id}-sort`} className="whitespace-nowrap text-sm text-ink-muted">
             Sort by
           </label>
           <Select
