@@ -38,6 +38,9 @@ export const MESH_PRESET_PARAMS: Record<MeshPreset, MeshParams> = {
   precise: { hSing: 2.5e-4, hDiel: 1e-3, hStruct: 0.0125, nCurve: 64, mGap: 32, growth: 1.05, growthFar: 1.15, extent: 400 },
 };
 
+/** Most nodes along one axis. */
+export const MAX_AXIS = 100_000;
+
 /** Number of members in the mesh family (finest, ×2, ×4 spacing). */
 export const FAMILY_LEVELS = 3;
 const STEP = 1 << (FAMILY_LEVELS - 1);
@@ -112,7 +115,7 @@ function segDist(px: number, py: number, ax: number, ay: number, bx: number, by:
 }
 
 /** Build the finest mesh of the family; coarser members are every 2nd and 4th node. */
-export function buildMesh(input: MeshInput, p: MeshParams): { xs: Float64Array; ys: Float64Array } {
+export function buildMesh(input: MeshInput, p: MeshParams, maxNodes = Infinity): { xs: Float64Array; ys: Float64Array } {
   const points: Point[] = [];
   const xLines: AxisFeature[] = [];
   const yLines: AxisFeature[] = [];
@@ -225,8 +228,9 @@ export function buildMesh(input: MeshInput, p: MeshParams): { xs: Float64Array; 
   const y1 = top ?? all.y1 + ext;
   const sx = input.structure;
   const margin = Math.max(sx.x1 - sx.x0, sx.y1 - sx.y0);
-  const xs = buildAxis(x0, x1, xLines, xSpans, sx.x0 - margin, sx.x1 + margin, p);
-  const ys = buildAxis(y0, y1, yLines, ySpans, sx.y0 - margin, sx.y1 + margin, p);
+  // one axis beyond MAX_AXIS nodes is refused too (it stops absurd requests early)
+  const xs = buildAxis(x0, x1, xLines, xSpans, sx.x0 - margin, sx.x1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / 5)));
+  const ys = buildAxis(y0, y1, yLines, ySpans, sx.y0 - margin, sx.y1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / xs.length)));
   return { xs, ys };
 }
 
@@ -271,6 +275,7 @@ export function buildAxis(
   b0: number,
   b1: number,
   p: MeshParams,
+  maxLength = Infinity,
 ): Float64Array {
   const feats = lines.filter((l) => l.at >= lo - 1e-9 && l.at <= hi + 1e-9);
   const keys = uniqueSorted([lo, hi, ...feats.map((l) => l.at)]).filter((x) => x >= lo - 1e-9 && x <= hi + 1e-9);
@@ -335,11 +340,13 @@ export function buildAxis(
       }
       x += dx;
       f += delta;
+      if (out.length + f > maxLength) throw new MeshTooLargeError();
       tx.push(x);
       tf.push(f);
     }
     const nCoarse = Math.max(1, Math.ceil(f / STEP - 1e-9));
     const n = nCoarse * STEP;
+    if (out.length + n > maxLength) throw new MeshTooLargeError();
     let m = 0;
     for (let c = 1; c < n; c++) {
       const target = (c * f) / n;
@@ -350,6 +357,14 @@ export function buildAxis(
     out.push(b);
   }
   return Float64Array.from(out);
+}
+
+/** Thrown by buildMesh when the mesh would exceed its node limit (caught by solveProblem). */
+export class MeshTooLargeError extends RangeError {
+  constructor() {
+    super('mesh too large');
+    this.name = 'MeshTooLargeError';
+  }
 }
 
 /** Every `step`-th entry of a finest axis (a coarser member of the family). */

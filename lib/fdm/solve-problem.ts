@@ -10,7 +10,7 @@
 import type { Geometry, Problem, ProblemSolution, SolveProblemOptions, SolveProgress } from './types';
 import { SolveCancelledError } from './types';
 import { geometryBox, transformGeometry, type Box } from './geometry';
-import { buildMesh, FAMILY_LEVELS, MESH_PRESET_PARAMS, subsampleAxis, type MeshParams } from './mesh';
+import { buildMesh, FAMILY_LEVELS, MESH_PRESET_PARAMS, MeshTooLargeError, subsampleAxis, type MeshParams } from './mesh';
 import { discretise, type Discretisation } from './discretise';
 import { discreteEnergy, netCharges, unitRhs } from './charges';
 import { richardson } from './extrapolate';
@@ -168,19 +168,29 @@ export function solveProblem(problem: Problem, opts: SolveProblemOptions = {}): 
   }
 
   progress({ stage: 'mesh', fraction: 0 });
-  const { xs, ys } = buildMesh(
-    {
-      conductors: conductors.map((c) => c.geometry),
-      dielectrics: dielectrics.map((d) => d.geometry),
-      limits: { left: limit(b.left, X), right: limit(b.right, X), bottom: limit(b.bottom, Y), top: limit(b.top, Y) },
-      structure,
-    },
-    params,
-  );
-  const nodes = xs.length * ys.length;
-  if (nodes > MAX_NODES) {
-    throw new RangeError(`the mesh would need ${nodes.toLocaleString('en-US')} nodes, more than the limit of ${MAX_NODES.toLocaleString('en-US')}: use a coarser preset or a larger finest spacing`);
+  const tooLarge = (n?: number) =>
+    new RangeError(
+      `the mesh would need ${n === undefined ? 'more than' : n.toLocaleString('en-US') + ' nodes, more than'} the limit of ${MAX_NODES.toLocaleString('en-US')} nodes: use a coarser preset or a larger finest spacing`,
+    );
+  let mesh: { xs: Float64Array; ys: Float64Array };
+  try {
+    mesh = buildMesh(
+      {
+        conductors: conductors.map((c) => c.geometry),
+        dielectrics: dielectrics.map((d) => d.geometry),
+        limits: { left: limit(b.left, X), right: limit(b.right, X), bottom: limit(b.bottom, Y), top: limit(b.top, Y) },
+        structure,
+      },
+      params,
+      MAX_NODES,
+    );
+  } catch (e) {
+    if (e instanceof MeshTooLargeError) throw tooLarge();
+    throw e;
   }
+  const { xs, ys } = mesh;
+  const nodes = xs.length * ys.length;
+  if (nodes > MAX_NODES) throw tooLarge(nodes);
 
   const planeNet = problem.nets.length;
   const groundSides = {
@@ -374,7 +384,10 @@ export function solveProblem(problem: Problem, opts: SolveProblemOptions = {}): 
     warnings,
   };
   if (keepFields && fin.potentials && fin.disc) {
-    out.fields = { potentials: fin.potentials, cellEpsR: fin.disc.cellEpsR, nodeNet: fin.disc.nodeNet };
+    // ground-plane nodes carry −2 (they belong to no net); conductor nodes their net; free −1
+    const nodeNet = fin.disc.nodeNet;
+    for (let k = 0; k < nodeNet.length; k++) if (nodeNet[k] === planeNet) nodeNet[k] = -2;
+    out.fields = { potentials: fin.potentials, cellEpsR: fin.disc.cellEpsR, nodeNet };
   }
   return out;
 }

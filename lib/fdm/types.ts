@@ -140,6 +140,7 @@ export interface ProblemSolution {
   /** Finest mesh, node coordinates in metres. */
   mesh: Mesh & { nodes: number; finestSpacing: number; preset: string };
   /** Finest mesh, dielectric solve: one potential per signal net at 1 V (others 0). */
+  /** nodeNet: index into problem.nets for conductor nodes, −1 for free nodes, −2 for ground-plane nodes. */
   fields?: { potentials: Float64Array[]; cellEpsR: Float32Array; nodeNet: Int16Array };
   solver: { iterations: number; relResidual: number; method: string };
   timing: { setupMs: number; solveMs: number; totalMs: number };
