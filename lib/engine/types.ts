@@ -100,7 +100,7 @@ export interface SectionFields {
   potentials: Float64Array[];
   /** Relative permittivity per cell, Float32Array((nx−1)*(ny−1)), row-major. */
   cellEpsR: Float32Array;
-  /** Conductor net index per node, −1 where free; Int16Array(nx*ny). */
+  /** Conductor net index per node (into netNames), −1 where free, −2 on a ground-boundary plane; Int16Array(nx*ny). */
   nodeNet: Int16Array;
   /** Net name of each nodeNet index (nets without shapes are left out of the solve). */
   netNames?: string[];
