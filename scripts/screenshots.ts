@@ -118,6 +118,8 @@ async function run(browser: Browser, baseURL: string) {
       if (await first.count()) {
         await first.click();
         await p.getByTestId('section-name').waitFor();
+        // The drawing editor loads after the page (Konva is client-only); give it time to draw.
+        await p.locator('[data-testid="section-editor-slot"] canvas').first().waitFor({ timeout: 30_000 }).catch(() => undefined);
         await shot(p, `${r}-section`, width);
         if (r !== 'viewer') {
           await p.getByTestId('section-rename').click();

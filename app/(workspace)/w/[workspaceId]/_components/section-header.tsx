@@ -88,7 +88,7 @@ export function SectionHeader({
       </nav>
       <div className="mt-1 flex flex-wrap items-center gap-x-4 gap-y-2">
         {editing ? (
-          <form onSubmit={submitRename} className="flex items-center gap-2" noValidate>
+          <form onSubmit={submitRename} className="flex min-w-[24rem] max-w-2xl flex-1 items-center gap-2" noValidate>
             <label htmlFor={`${id}-name`} className="sr-only">
               Section name
             </label>
@@ -104,7 +104,7 @@ export function SectionHeader({
                 }
               }}
               maxLength={120}
-              className="h-9 w-96 text-lg font-semibold"
+              className="h-9 min-w-0 flex-1 text-lg font-semibold"
               aria-invalid={nameError ? true : undefined}
               aria-describedby={`${id}-name-error`}
               data-testid="section-name-input"
