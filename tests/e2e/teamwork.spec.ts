@@ -25,6 +25,7 @@ async function invitationLink(page: Page, email: string): Promise<string> {
 }
 
 test('invite by e-mail → join as editor → owner makes them a viewer; UI and API follow', async ({ page, browser }) => {
+  test.slow(); // two browsers, the mailbox and several page loads
   const workspaceId = await signInAs(page, 'owner');
   const members = new MembersPage(page);
   await members.goto(workspaceId);
@@ -41,7 +42,7 @@ test('invite by e-mail → join as editor → owner makes them a viewer; UI and 
   await expect(invite.root).toHaveAttribute('data-state', 'sign_up');
   await expect(guest.getByTestId('invite-workspace')).toHaveText(DEMO_WORKSPACE_NAME);
   await invite.signUp('Pia Lund', 'pia-lund-password');
-  await expect(guest).toHaveURL(new RegExp(`/w/${workspaceId}$`), { timeout: 30_000 });
+  await expect(guest).toHaveURL(new RegExp(`/w/${workspaceId}$`), { timeout: 90_000 }); // bcrypt twice: slow on a loaded machine
   const home = new WorkspacePage(guest);
   await expect(home.title).toHaveText(DEMO_WORKSPACE_NAME);
   await expect(home.newSection).toBeVisible(); // editors may create sections

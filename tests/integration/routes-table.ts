@@ -7,7 +7,8 @@
  * list, so a new route cannot ship unchecked. Issue 8 extends this table (share links ...).
  */
 import type { World } from './helpers/fixtures';
-import { coaxSection, fakeResult } from './helpers/fixtures';
+import { MEASURED_CSV, coaxSection, fakeResult } from './helpers/fixtures';
+import { multipartBody } from './helpers/multipart';
 
 export type Role = 'owner' | 'editor' | 'viewer';
 export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -241,6 +242,53 @@ export const ROUTES: RouteRow[] = [
     access: 'editor',
     params: (w) => ({ workspaceId: w.wsA }),
     body: (_w, n) => ({ material: { id: `lab-resin-${n}`, name: `Lab resin ${n}`, epsR: 3.1 } }),
+    ok: [201],
+  },
+  // Drawing import and files kept with a section (issue 7, TEAMWORK).
+  {
+    file: `${WS}/imports`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA }),
+    rawBody: () =>
+      multipartBody({
+        file: { name: 'plate.svg', type: 'image/svg+xml', text: '<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 10 10"><rect data-layer="top" x="0" y="0" width="4" height="0.2"/><rect data-layer="bottom" x="0" y="1" width="4" height="0.2"/></svg>' },
+        options: JSON.stringify({ name: 'Imported plates', units: 'mm', layers: { top: { as: 'conductor', net: 'top', role: 'signal' }, bottom: { as: 'conductor', net: 'bottom', role: 'ground' } } }),
+      }),
+    ok: [201],
+  },
+  {
+    file: `${SEC}/files`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    ok: [200],
+  },
+  {
+    file: `${SEC}/files/[fileId]`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA, fileId: w.fileA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB, fileId: w.fileB }),
+    ok: [200],
+  },
+  {
+    file: `${SEC}/measurements`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    ok: [200],
+  },
+  {
+    file: `${SEC}/measurements`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
+    query: '?name=bench.csv',
+    rawBody: () => ({ contentType: 'text/csv', data: new TextEncoder().encode(MEASURED_CSV) }),
     ok: [201],
   },
   // Auth and demo routes: not workspace data.

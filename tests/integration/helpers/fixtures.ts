@@ -3,7 +3,7 @@
  * (an outsider who owns it), each with a section, a revision and a solve. All fictional.
  */
 import type { Db } from '@/db/client';
-import { invitations, memberships, sectionRevisions, sections, solves, users, workspaces } from '@/db/schema';
+import { files, invitations, memberships, sectionRevisions, sections, solves, users, workspaces } from '@/db/schema';
 import { RESULT_FORMAT } from '@/lib/engine/types';
 import { sectionSchema, type Section } from '@/lib/section/schema';
 import { eq } from 'drizzle-orm';
@@ -23,7 +23,13 @@ export interface World {
   /** Pending invitations (issue 7), one per workspace; token hashes are placeholders. */
   invitationA: string;
   invitationB: string;
+  /** A measured-data CSV kept with each section (issue 7). */
+  fileA: string;
+  fileB: string;
 }
+
+/** A small valid measured-data CSV (numbers invented for storage tests). */
+export const MEASURED_CSV = 'w (mm),C (pF/m)\n0.5,61.0\n1.0,84.5\n2.0,121.0\n';
 
 /** A valid coax section (the shared sample shape), units mm. */
 export function coaxSection(r = 0.6): Section {
@@ -106,6 +112,16 @@ export async function buildWorld(db: Db): Promise<World> {
     .insert(invitations)
     .values({ workspaceId: b!.id, email: 'invited-b@test.example', role: 'editor', tokenHash: 'fixture-b', invitedBy: u.outsider.id, expiresAt: week })
     .returning();
+  const mkFile = async (ws: string, section: string, by: string) => {
+    const data = new TextEncoder().encode(MEASURED_CSV);
+    const [f] = await db
+      .insert(files)
+      .values({ workspaceId: ws, sectionId: section, kind: 'measured-csv', name: 'bench.csv', mediaType: 'text/csv', bytes: data.byteLength, data, uploadedBy: by })
+      .returning();
+    return f!.id;
+  };
+  const fileA = await mkFile(a!.id, sa.section, u.editor.id);
+  const fileB = await mkFile(b!.id, sb.section, u.outsider.id);
   return {
     users: u,
     wsA: a!.id,
@@ -118,5 +134,7 @@ export async function buildWorld(db: Db): Promise<World> {
     solveB: sb.solve,
     invitationA: ia!.id,
     invitationB: ib!.id,
+    fileA,
+    fileB,
   };
 }
