@@ -13,6 +13,7 @@ import { LoadingNote, SkeletonRows } from '@/components/ui/skeleton';
 import { Time } from '@/components/ui/time';
 import { apiFetch, errorMessage } from '@/components/ui/api';
 import { CreateSectionDialog } from './create-section-dialog';
+import { ImportDrawingButton } from '@/components/import/import-drawing';
 import { useRestoreSection } from './section-mutations';
 import { roleCanEdit, type Role, type SectionItem } from './types';
 
@@ -94,6 +95,7 @@ export function SectionsPanel({
             {deleted ? 'Back to sections' : 'Deleted'}
           </Button>
         ) : null}
+        {canEdit && !deleted ? <ImportDrawingButton workspaceId={workspaceId} /> : null}
         {canEdit && !deleted ? (
           <Button size="sm" variant="primary" onClick={() => setCreating(true)} data-testid="new-section">
             <Plus className="size-4" aria-hidden />
