@@ -1,6 +1,6 @@
 'use client';
 
-import { useQuery } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { ChevronRight, Pencil, RotateCcw, Trash2 } from 'lucide-react';
 import Link from 'next/link';
 import { useRouter } from 'next/navigation';
@@ -40,6 +40,15 @@ export function SectionHeader({
     initialDataUpdatedAt: Date.now(),
   });
   const section = query.data ?? initial;
+
+  // A server re-render (router.refresh() after the editor saves a revision, or after a rename)
+  // brings newer props: take them over when they are newer than what the cache holds.
+  const qc = useQueryClient();
+  useEffect(() => {
+    const cached = qc.getQueryData<SectionDetail>(key);
+    if (!cached || new Date(initial.updatedAt) >= new Date(cached.updatedAt)) qc.setQueryData(key, initial);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [initial.updatedAt, initial.latestRevision?.id, initial.name, initial.deletedAt]);
   const rename = useRenameSection(workspaceId, initial.id);
   const del = useDeleteSection(workspaceId, initial.id);
   const restore = useRestoreSection(workspaceId);
