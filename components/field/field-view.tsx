@@ -68,14 +68,31 @@ function rasterSize(rect: WorldRect, maxPx: number): [number, number] {
   return [Math.max(2, Math.round((maxPx * w) / h)), maxPx];
 }
 
-function fit(rect: WorldRect, unit: number, width: number, height: number): View {
+function fit(rect: WorldRect, unit: number, width: number, height: number, mesh?: WorldRect): View {
   const w = (rect.x1 - rect.x0) / unit;
   const h = (rect.y1 - rect.y0) / unit;
   const pad = 24;
   const scale = Math.min((width - 2 * pad) / w, (height - 2 * pad) / h);
   const cx = (rect.x0 + rect.x1) / 2 / unit;
   const cy = (rect.y0 + rect.y1) / 2 / unit;
-  return { scale, ox: width / 2 - cx * scale, oy: height / 2 + cy * scale };
+  let ox = width / 2 - cx * scale;
+  let oy = height / 2 + cy * scale;
+  if (mesh) {
+    // where the mesh is larger than the view along an axis, keep its edge at the view's edge
+    const mx0 = ox + (mesh.x0 / unit) * scale;
+    const mx1 = ox + (mesh.x1 / unit) * scale;
+    if (mx1 - mx0 >= width) {
+      if (mx0 > 0) ox -= mx0;
+      else if (mx1 < width) ox += width - mx1;
+    }
+    const myTop = oy - (mesh.y1 / unit) * scale;
+    const myBottom = oy - (mesh.y0 / unit) * scale;
+    if (myBottom - myTop >= height) {
+      if (myTop > 0) oy -= myTop;
+      else if (myBottom < height) oy += height - myBottom;
+    }
+  }
+  return { scale, ox, oy };
 }
 
 export function FieldView({ result, fields, section, initialMode = 'potential', height = 480 }: FieldViewProps) {
@@ -89,7 +106,7 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
   const [net, setNet] = useState(0);
   const [voltsText, setVoltsText] = useState('1');
   const volts = Number.isFinite(Number(voltsText)) && voltsText.trim() !== '' ? Number(voltsText) : 1;
-  const [logScale, setLogScale] = useState(false);
+  const [logScale, setLogScale] = useState(true);
   const [tool, setTool] = useState<'probe' | 'cut'>('probe');
   const [probe, setProbe] = useState<{ x: number; y: number } | null>(null);
   const [cut, setCut] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
@@ -135,9 +152,9 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
     setWidth(Math.max(320, Math.floor(el.clientWidth)));
     return () => ro.disconnect();
   }, []);
-  const fitNow = useCallback(() => setView(fit(model.focus, model.unit, width, height)), [model, width, height]);
+  const fitNow = useCallback(() => setView(fit(model.focus, model.unit, width, height, model.meshRect)), [model, width, height]);
   useEffect(() => {
-    setView((v) => v ?? fit(model.focus, model.unit, width, height));
+    setView((v) => v ?? fit(model.focus, model.unit, width, height, model.meshRect));
   }, [model, width, height]);
 
   const toWorld = useCallback((v: View, px: number, py: number) => ({ x: (px - v.ox) / v.scale, y: (v.oy - py) / v.scale }), []);
@@ -162,10 +179,21 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
     const sy = (ym: number) => view.oy - (ym / u) * view.scale;
     if (images) {
       ctx.imageSmoothingEnabled = mode !== 'field';
-      for (const layer of [images.coarse, images.fine]) {
-        const r = layer.rect;
-        ctx.drawImage(layer.img, sx(r.x0), sy(r.y1), sx(r.x1) - sx(r.x0), sy(r.y0) - sy(r.y1));
-      }
+      const f = images.fine.rect;
+      const fx0 = sx(f.x0);
+      const fy0 = sy(f.y1);
+      const fw = sx(f.x1) - fx0;
+      const fh = sy(f.y0) - fy0;
+      // the coarse picture only outside the fine one (no double alpha where they overlap)
+      ctx.save();
+      ctx.beginPath();
+      ctx.rect(0, 0, width, height);
+      ctx.rect(fx0, fy0, fw, fh);
+      ctx.clip('evenodd');
+      const r = images.coarse.rect;
+      ctx.drawImage(images.coarse.img, sx(r.x0), sy(r.y1), sx(r.x1) - sx(r.x0), sy(r.y0) - sy(r.y1));
+      ctx.restore();
+      ctx.drawImage(images.fine.img, fx0, fy0, fw, fh);
     }
     if (mode === 'mesh') drawMesh(ctx, model, sx, sy, width, height);
     drawShapes(ctx, resolved, view, mode);
@@ -565,10 +593,13 @@ function drawIso(
   volts: number,
 ) {
   ctx.lineWidth = 1.2;
+  ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+  const placed: { x: number; y: number }[] = [];
+  const labels: { text: string; x: number; y: number }[] = [];
+  // outermost (lowest) level first, so the crowded inner lines give way
   for (const iso of m.iso) {
-    ctx.strokeStyle = 'rgba(255,255,255,0.9)';
-    let best: Float64Array | null = null;
-    let bestLen = 0;
+    let bestScore = -1;
+    let best: { x: number; y: number } | null = null;
     for (const line of iso.lines) {
       ctx.beginPath();
       for (let q = 0; q < line.length; q += 2) {
@@ -578,23 +609,28 @@ function drawIso(
         else ctx.lineTo(x, y);
       }
       ctx.stroke();
-      // label the longest piece that is on screen
-      const len = polylineLength(line);
-      if (len > bestLen) {
-        const mid = pointAlong(line, 0.5);
-        const x = sx(mid.x);
-        const y = sy(mid.y);
-        if (x > 20 && x < width - 60 && y > 20 && y < height - 10) {
-          best = line;
-          bestLen = len;
+      if (polylineLength(line) <= 0) continue;
+      // candidate label spots along the line: the one farthest from labels already placed
+      for (let k = 1; k < 12; k++) {
+        const p = pointAlong(line, k / 12);
+        const x = sx(p.x);
+        const y = sy(p.y);
+        if (x < 12 || x > width - 60 || y < 18 || y > height - 8) continue;
+        let d = 1e9;
+        for (const o of placed) d = Math.min(d, Math.hypot((o.x - x) * 0.6, o.y - y));
+        if (d > bestScore) {
+          bestScore = d;
+          best = { x, y };
         }
       }
     }
-    if (best) {
-      const mid = pointAlong(best, 0.5);
-      label(ctx, `${sig(iso.level * volts, 2)} V`, sx(mid.x) + 3, sy(mid.y) - 3, '#141d23');
+    // skip a label that would sit on top of another
+    if (best && bestScore > 16) {
+      placed.push(best);
+      labels.push({ text: `${sig(iso.level * volts, 2)} V`, x: best.x + 3, y: best.y - 3 });
     }
   }
+  for (const l of labels) label(ctx, l.text, l.x, l.y, '#141d23');
 }
 
 function drawLines(ctx: CanvasRenderingContext2D, m: FieldModel, sx: (x: number) => number, sy: (y: number) => number) {

@@ -44,6 +44,12 @@ export function twoTerminal(maxwell: number[][]): number | null {
   return null;
 }
 
+/** "(boundary)" is the engine's name for ground boundaries; say it in words. */
+export function referenceWords(reference: string[]): string {
+  const parts = reference.map((r) => (r === '(boundary)' ? 'the ground plane at the boundary' : r));
+  return parts.length ? parts.join(' and ') : 'ground';
+}
+
 export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }: ResultsPanelProps) {
   const [unit, setUnit] = useState<CapUnit>(initialUnit);
   const [lenText, setLenText] = useState('10');
@@ -144,7 +150,7 @@ export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }:
         <Block title="Two-terminal capacitance" testId="results-two-terminal">
           <p className="text-ink-soft">
             {nets.length === 1
-              ? `Between ${nets[0]} and the reference (${result.reference.join(', ') || 'ground'}).`
+              ? `Between ${nets[0]} and the reference: ${referenceWords(result.reference)}.`
               : `Between ${nets[0]} and ${nets[1]}, with equal and opposite charges on them and none on the reference.`}
           </p>
           <ValueRow label="per length" value={`${perLen(C2)} ${unit}`} err={nets.length === 1 ? per[0]?.[0] : rel} testId="two-terminal-value" />
@@ -185,7 +191,7 @@ export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }:
           actions={<CopyButton label="Copy table" text={() => lineTsv(result)} testId="copy-line" />}
           testId="results-line"
         >
-          <dl className="grid grid-cols-1 gap-x-6 sm:grid-cols-2">
+          <dl className="flex flex-col">
             <ValueRow label="C′" value={`${perLen(line.capacitancePerM)} ${unit}`} err={rel} testId="line-c" />
             <ValueRow label="L′" value={withPrefix(line.inductancePerM, 'H/m', 4)} err={rel} testId="line-l" />
             <ValueRow label="Z0" value={`${sig(line.z0Ohm, 4)} Ω`} err={rel} testId="line-z0" />
@@ -206,7 +212,7 @@ export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }:
       {plates ? <PlatesCard result={result} unit={unit} unitLabel={unitLabel} /> : null}
 
       <Block title="How the solve went" testId="results-solve-info" actions={<CopyButton label="Copy" text={() => solveTsv(result)} />}>
-        <dl className="grid grid-cols-2 gap-x-6 gap-y-0.5 text-sm">
+        <dl className="flex flex-col text-sm">
           <Item k="Solve time" v={`${sig(result.timing.ms / 1000, 3)} s`} />
           <Item k="Mesh" v={`${result.mesh.nx} × ${result.mesh.ny} = ${result.mesh.nodes.toLocaleString('en-US')} nodes (${result.mesh.preset})`} />
           <Item k="Finest spacing" v={withPrefix(result.mesh.finestM, 'm', 3)} />
@@ -251,10 +257,10 @@ function PlatesCard({ result, unit, unitLabel }: { result: SectionResult; unit: 
       <p className="text-base font-medium text-ink" data-testid="plates-sentence">
         {words}
       </p>
-      <dl className="mt-2 grid grid-cols-1 gap-x-6 sm:grid-cols-2">
+      <dl className="mt-2 flex flex-col">
         <ValueRow label="Ideal εw/d" value={`${sig(p.idealPerM * f, 4)} ${unit}`} />
         <ValueRow label="Solved" value={`${sig(solved * f, 4)} ${unit}`} err={rel} />
-        <ValueRow label="Fringing excess" value={`${sig(excess, 3)} %`} err={rel * p.solvedOverIdeal / Math.max(1e-12, Math.abs(p.solvedOverIdeal - 1))} testId="plates-excess" />
+        <ValueRow label="Fringing excess" value={`${sig(excess, 3)} %`} errText={`±${sig(rel * p.solvedOverIdeal * 100, 2)} points`} testId="plates-excess" />
         <ValueRow label="Gap / width" value={sig(p.gapToWidth, 3)} />
         <ValueRow label="Gap" value={`${sig(p.gap, 4)} ${unitLabel}`} />
         <ValueRow label="Width (overlap)" value={`${sig(p.width, 4)} ${unitLabel}`} />
@@ -321,13 +327,13 @@ function Block({
   );
 }
 
-function ValueRow({ label, value, err, testId }: { label: string; value: string; err?: number; testId?: string }) {
+function ValueRow({ label, value, err, errText, testId }: { label: string; value: string; err?: number; errText?: string; testId?: string }) {
   return (
     <div className="flex items-baseline justify-between gap-3 border-b border-line/60 py-1 last:border-b-0">
       <dt className="text-ink-soft">{label}</dt>
       <dd className="text-right tabular-nums" data-testid={testId}>
         <span className="font-medium text-ink">{value}</span>
-        {err !== undefined ? <span className="ml-1.5 text-xs text-ink-muted">{formatRelError(err)}</span> : null}
+        {errText !== undefined || err !== undefined ? <span className="ml-1.5 whitespace-nowrap text-xs text-ink-muted">{errText ?? formatRelError(err)}</span> : null}
       </dd>
     </div>
   );

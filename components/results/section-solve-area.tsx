@@ -82,7 +82,7 @@ export function SectionSolveArea(props: SectionSolveAreaProps) {
       )}
       {state.result ? (
         <label className="flex items-center gap-1 text-xs text-ink-soft">
-          Show
+          <span className="hidden xl:inline">Show</span>
           <select
             className="h-7 rounded border border-line-strong bg-surface px-1 text-xs text-ink"
             value={overlayKind}
