@@ -313,7 +313,7 @@ export function buildAxis(
   };
 
   const out: number[] = [lo];
-  const delta = 1 / 16;
+  const delta = 1 / 4;
   const tx: number[] = [];
   const tf: number[] = [];
   for (let k = 0; k + 1 < keys.length; k++) {
