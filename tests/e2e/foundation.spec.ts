@@ -48,7 +48,9 @@ test('owner signs in, sees the demo workspace and renames it', async ({ page }) 
 
   const settings = new SettingsPage(page);
   await settings.goto(workspaceId);
-  await expect(settings.members).toHaveCount(3);
+  for (const role of ['owner', 'editor', 'viewer'] as const) {
+    await expect(settings.members.filter({ hasText: demoAccount(role).email })).toHaveAttribute('data-role', role);
+  }
   const renamed = unique('Sensor Lab');
   await settings.renameWorkspace(renamed);
   await expect(home.currentWorkspaceName).toHaveText(renamed);
