@@ -29,15 +29,21 @@ export function median(values: number[]): number {
 
 const round = (v: number, digits: number) => Number(v.toFixed(digits));
 
-/** Times matvecs on `sys`; returns the individual timings in ms. */
-function timeMatvecs(sys: LinearSystem, count: number, out: Float64Array): number[] {
-  const t: number[] = [];
+/** Process CPU time in ms (all threads; steadier than wall-clock on a loaded machine). */
+export function cpuMs(): number {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1000;
+}
+
+/** Times matvecs on `sys`; pushes the wall-clock and CPU timings in ms. */
+function timeMatvecs(sys: LinearSystem, count: number, out: Float64Array, wall: number[], cpu: number[]): void {
   for (let r = 0; r < count; r++) {
+    const c0 = cpuMs();
     const t0 = performance.now();
     applyOperator(sys.op, sys.rhs, out);
-    t.push(performance.now() - t0);
+    wall.push(performance.now() - t0);
+    cpu.push(cpuMs() - c0);
   }
-  return t;
 }
 
 /** True relative residual ‖b − A x‖ / ‖b‖. */
@@ -55,28 +61,41 @@ export function trueRelResidual(sys: LinearSystem, x: Float64Array): number {
 /** Runs set-up + solve `repeats` times (after one warm-up run) and reports medians. */
 export function measureSolver(sys: LinearSystem, repeats = 3): SolverCaseResult {
   const out = new Float64Array(sys.rhs.length);
-  const mv: number[] = [];
+  const mv: number[] = [], mvCpu: number[] = [];
   // warm-up: compiles the kernels at this size
-  timeMatvecs(sys, 3, out);
+  timeMatvecs(sys, 3, out, [], []);
   solve(setupHierarchy(sys.op), sys.rhs, { tolerance: BENCH_TOLERANCE });
   const setups: number[] = [], solves: number[] = [], iters: number[] = [];
+  const setupsCpu: number[] = [], solvesCpu: number[] = [];
   let relResidual = 0;
   for (let r = 0; r < repeats; r++) {
-    mv.push(...timeMatvecs(sys, 5, out));
+    timeMatvecs(sys, 5, out, mv, mvCpu);
+    const c0 = cpuMs();
     const t0 = performance.now();
     const h = setupHierarchy(sys.op);
     const t1 = performance.now();
+    const c1 = cpuMs();
     const res = solve(h, sys.rhs, { tolerance: BENCH_TOLERANCE });
     const t2 = performance.now();
-    mv.push(...timeMatvecs(sys, 5, out));
+    const c2 = cpuMs();
+    timeMatvecs(sys, 5, out, mv, mvCpu);
     setups.push(t1 - t0);
     solves.push(t2 - t1);
+    setupsCpu.push(c1 - c0);
+    solvesCpu.push(c2 - c1);
     iters.push(res.iterations);
     relResidual = Math.max(relResidual, trueRelResidual(sys, res.x));
   }
   const matvecMs = median(mv);
   const solveMs = median(solves);
+  const matvecCpu = median(mvCpu);
   return {
+    _cpu: {
+      setupMs: round(median(setupsCpu), 1),
+      solveMs: round(median(solvesCpu), 1),
+      matvecMs: round(matvecCpu, 3),
+      workUnits: round(median(solvesCpu) / matvecCpu, 1),
+    },
     unknowns: sys.unknowns,
     setupMs: round(median(setups), 1),
     solveMs: round(solveMs, 1),

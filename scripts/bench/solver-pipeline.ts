@@ -5,7 +5,7 @@
 import type { MeshPreset, Problem } from '../../lib/fdm/types';
 import { applyOperator } from '../../lib/fdm/operator';
 import { assembleSystem } from './systems';
-import { median } from './solver-case';
+import { cpuMs, median } from './solver-case';
 
 /** Microstrip in metres: 2 mm × 35 µm trace on a 1.6 mm εr 4.4 substrate, ground plane at y = 0. */
 export function benchMicrostrip(preset: MeshPreset): Problem {
@@ -34,11 +34,13 @@ export async function measureSolverPipeline(preset: MeshPreset, repeats = 3): Pr
   if (!solveProblem) return { skipped: 'lib/fdm/index.ts with solveProblem is not available yet' };
   const problem = benchMicrostrip(preset);
   solveProblem(problem); // warm-up
-  const setups: number[] = [], solves: number[] = [], iters: number[] = [];
+  const setups: number[] = [], solves: number[] = [], iters: number[] = [], totalCpu: number[] = [];
   let rel = 0;
-  let mesh = { nx: 0, ny: 0, xs: new Float64Array(0), ys: new Float64Array(0), nodes: 0 };
+  let mesh: { nx: number; ny: number; xs: Float64Array; ys: Float64Array; nodes: number } = { nx: 0, ny: 0, xs: new Float64Array(0), ys: new Float64Array(0), nodes: 0 };
   for (let r = 0; r < repeats; r++) {
+    const c0 = cpuMs();
     const sol = solveProblem(problem);
+    totalCpu.push(cpuMs() - c0);
     setups.push(sol.timing.setupMs);
     solves.push(sol.timing.solveMs);
     iters.push(sol.solver.iterations);
@@ -57,6 +59,7 @@ export async function measureSolverPipeline(preset: MeshPreset, repeats = 3): Pr
   const matvecMs = median(mv.slice(5));
   const solveMs = median(solves);
   return {
+    _cpu: { totalMs: Number(median(totalCpu).toFixed(1)) },
     unknowns: mesh.nodes,
     setupMs: Number(median(setups).toFixed(1)),
     solveMs: Number(solveMs.toFixed(1)),
