@@ -129,23 +129,20 @@ export function buildFieldModel(
     const y = grid.ys[j]!;
     return x >= focus.x0 && x <= focus.x1 && y >= focus.y0 && y <= focus.y1;
   };
-  let eClip = quantile(cells.mag, 0.99, inFocus);
-  if (!(eClip > 0)) eClip = peak?.mag ?? 1;
-  let eFloor = quantile(cells.mag, 0.05, inFocus);
-  if (!(eFloor > 0) || eFloor >= eClip) eFloor = eClip * 1e-3;
-  const span = phiMax - phiMin;
-  const lv: number[] = [];
-  if (span > 0) for (let q = 1; q <= levels; q++) lv.push(phiMin + (q / (levels + 1)) * span);
-  const iso = isoLines(grid, phi, lv);
-  // nodeNet holds indices into the section's nets; the drive is per signal net (matrix order)
-  let maxNet = -1;
-  for (let q = 0; q < nn.length; q++) if (nn[q]! > maxNet) maxNet = nn[q]!;
-  const voltsByNodeNet = new Array<number>(Math.max(0, maxNet + 1)).fill(0);
-  result.nets.forEach((name, k) => {
-    const idx = nodeNetIndexOf(section, result, name, k);
-    if (idx >= 0 && idx < voltsByNodeNet.length) voltsByNodeNet[idx] = drive.volts[k] ?? 0;
-  });
-  const lines = fieldLines(grid, phi, cells, nn, voltsByNodeNet, { linesPerNet });
+  // The parts only some views need are computed on first use and kept (not per frame).
+  let eRange: { clip: number; floor: number } | null = null;
+  const range = () => {
+    if (!eRange) {
+      let clip = quantile(cells.mag, 0.99, inFocus);
+      if (!(clip > 0)) clip = peak?.mag ?? 1;
+      let floor = quantile(cells.mag, 0.05, inFocus);
+      if (!(floor > 0) || floor >= clip) floor = clip * 1e-3;
+      eRange = { clip, floor };
+    }
+    return eRange;
+  };
+  let iso: IsoLine[] | null = null;
+  let lines: Float64Array[] | null = null;
   return {
     grid,
     unit,
@@ -155,10 +152,35 @@ export function buildFieldModel(
     cells,
     conductorCell,
     peak,
-    eClip,
-    eFloor,
-    iso,
-    lines,
+    get eClip() {
+      return range().clip;
+    },
+    get eFloor() {
+      return range().floor;
+    },
+    get iso() {
+      if (!iso) {
+        const span = phiMax - phiMin;
+        const lv: number[] = [];
+        if (span > 0) for (let q = 1; q <= levels; q++) lv.push(phiMin + (q / (levels + 1)) * span);
+        iso = isoLines(grid, phi, lv);
+      }
+      return iso;
+    },
+    get lines() {
+      if (!lines) {
+        // nodeNet holds indices into the section's nets; the drive is per signal net (matrix order)
+        let maxNet = -1;
+        for (let q = 0; q < nn.length; q++) if (nn[q]! > maxNet) maxNet = nn[q]!;
+        const voltsByNodeNet = new Array<number>(Math.max(0, maxNet + 1)).fill(0);
+        result.nets.forEach((name, k) => {
+          const idx = nodeNetIndexOf(section, result, name, k);
+          if (idx >= 0 && idx < voltsByNodeNet.length) voltsByNodeNet[idx] = drive.volts[k] ?? 0;
+        });
+        lines = fieldLines(grid, phi, cells, nn, voltsByNodeNet, { linesPerNet });
+      }
+      return lines;
+    },
     focus,
     meshRect: { x0: grid.xs[0]!, y0: grid.ys[0]!, x1: grid.xs[nx - 1]!, y1: grid.ys[ny - 1]! },
   };

@@ -125,9 +125,15 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
   }, [result, fields, resolved, net]);
 
   const potScale: ColorScale = useMemo(() => ({ kind: 'linear', min: model.phiMin, max: model.phiMax > model.phiMin ? model.phiMax : model.phiMin + 1 }), [model]);
+  // the |E| range needs percentiles over the mesh: only worked out once the |E| view is shown
   const eScale: ColorScale = useMemo(
-    () => (logScale ? { kind: 'log', min: model.eFloor, max: model.peak?.mag ?? model.eClip } : { kind: 'linear', min: 0, max: model.eClip }),
-    [model, logScale],
+    () =>
+      mode !== 'field'
+        ? { kind: 'linear', min: 0, max: 1 }
+        : logScale
+          ? { kind: 'log', min: model.eFloor, max: model.peak?.mag ?? model.eClip }
+          : { kind: 'linear', min: 0, max: model.eClip },
+    [model, logScale, mode],
   );
   const mask = useCallback((c: number) => model.conductorCell[c] === 1, [model]);
 

@@ -5,6 +5,10 @@
  * its link and sees the same numbers and field with no solve running, comments, and cannot
  * change it.
  */
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { expect, test, type Page } from '@playwright/test';
 import { signInAs } from './support/session';
 import { unique } from './support/accounts';
@@ -110,6 +114,25 @@ test.describe('solve, view and share', () => {
     });
     expect(dup.status()).toBe(200);
     expect(((await dup.json()) as { solve: { id: string } }).solve.id).toBe(solveId);
+
+    // The browser's worker gave exactly what the CLI gives for the same revision and settings
+    // (the same solveSection, same preset and tolerance; the solver is deterministic).
+    const rev = (await (await page.request.get(`/api/workspaces/${workspaceId}/sections/${sectionId}/revisions/${stored.solve.revisionId}`)).json()) as {
+      revision: { content: unknown };
+    };
+    const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'edgefield-solve-e2e-')), 'section.json');
+    fs.writeFileSync(file, JSON.stringify(rev.revision.content));
+    const settings = stored.solve.settings as { preset: string; tolerance: number };
+    const cli = JSON.parse(
+      execFileSync(process.execPath, [path.join('node_modules', 'tsx', 'dist', 'cli.mjs'), 'scripts/solve.ts', file, '--json', '--preset', settings.preset, '--tolerance', String(settings.tolerance)], {
+        encoding: 'utf8',
+        timeout: 240_000,
+      }),
+    ) as { capacitance: { maxwell: number[][] }; line: { z0Ohm: number }; mesh: { nodes: number } };
+    const browserResult = stored.solve.result as typeof cli;
+    expect(browserResult.mesh.nodes).toBe(cli.mesh.nodes);
+    expect(browserResult.capacitance.maxwell).toEqual(cli.capacitance.maxwell);
+    expect(browserResult.line.z0Ohm).toBe(cli.line.z0Ohm);
 
     // 4. A viewer opens the link in a fresh browser context.
     const ctx = await browser.newContext();
