@@ -229,6 +229,14 @@ export function solveProblem(problem: Problem, opts: SolveProblemOptions = {}): 
       planeNet,
       vacuum,
     });
+    if (level === FAMILY_LEVELS - 1 && !vacuum) {
+      // every signal net must own nodes inside the domain (not clipped away by a plane)
+      const count = new Int32Array(planeNet + 1);
+      for (let k = 0; k < disc.nodeNet.length; k++) if (disc.nodeNet[k] >= 0) count[disc.nodeNet[k]]++;
+      for (const s of signalNets) {
+        if (count[s] === 0) throw new RangeError(`signal net "${problem.nets[s].name}" lies entirely outside the domain (beyond a ground or mirror boundary)`);
+      }
+    }
     const hier = setupHierarchy(disc.op);
     const tsolve = now();
     setupMs += tsolve - ts;

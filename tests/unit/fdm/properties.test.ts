@@ -167,9 +167,11 @@ describe('Maxwell matrix properties over random problems', () => {
           const scaled = solveProblem(transform(p, (x, y) => [x * s, y * s], s)).maxwell;
           const moved = solveProblem(transform(p, (x, y) => [x + shift * MM, y - 0.5 * shift * MM], 1)).maxwell;
           const eps = solveProblem(transform(p, (x, y) => [x, y], 1, k));
-          expect(relDiff(C, scaled)).toBeLessThan(1e-8);
-          expect(relDiff(C, moved)).toBeLessThan(1e-8);
-          expect(relDiff(C.map((r) => r.map((c) => c * k)), eps.maxwell)).toBeLessThan(1e-8);
+          // exact in the model; the numbers differ only by round-off in the geometry and the
+          // solver's 1e-10 residual (~1e-8 in C). A changed mesh would show as ~1e-4.
+          expect(relDiff(C, scaled)).toBeLessThan(1e-6);
+          expect(relDiff(C, moved)).toBeLessThan(1e-6);
+          expect(relDiff(C.map((r) => r.map((c) => c * k)), eps.maxwell)).toBeLessThan(1e-6);
         },
       ),
       { numRuns: 6, seed: 4242 },

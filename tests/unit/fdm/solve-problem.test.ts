@@ -36,6 +36,11 @@ describe('solveProblem input checks', () => {
     q.dielectrics[0].epsR = 0.5;
     expect(() => solveProblem(q)).toThrow(RangeError);
   });
+  it('refuses a signal conductor that lies beyond a ground boundary', () => {
+    const p = wireOverGround();
+    p.conductors[0].geometry = { type: 'circle', cx: 0, cy: -1 * MM, r: 0.25 * MM };
+    expect(() => solveProblem(p)).toThrow(/outside the domain/);
+  });
   it('refuses a mesh beyond the node limit before building it', () => {
     const p = wireOverGround();
     p.conductors.push({ geometry: { type: 'rect', x: 1 * MM, y: 1 * MM, width: 1 * MM, height: 1 * MM }, net: 0 });
