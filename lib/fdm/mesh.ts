@@ -227,7 +227,7 @@ export function buildMesh(input: MeshInput, p: MeshParams, maxNodes = Infinity):
   const y0 = bottom ?? all.y0 - ext;
   const y1 = top ?? all.y1 + ext;
   const sx = input.structure;
-  const margin = Math.max(sx.x1 - sx.x0, sx.y1 - sx.y0);
+  const margin = 0.3 * Math.max(sx.x1 - sx.x0, sx.y1 - sx.y0);
   // one axis beyond MAX_AXIS nodes is refused too (it stops absurd requests early)
   const xs = buildAxis(x0, x1, xLines, xSpans, sx.x0 - margin, sx.x1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / 5)));
   const ys = buildAxis(y0, y1, yLines, ySpans, sx.y0 - margin, sx.y1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / xs.length)));
