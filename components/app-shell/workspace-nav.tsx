@@ -11,6 +11,7 @@ export function WorkspaceNav({ workspaceId }: { workspaceId: string }) {
   const tabs = [
     { href: base, label: 'Sections', active: pathname === base || pathname.startsWith(`${base}/sections`) },
     { href: `${base}/solves`, label: 'Solves', active: pathname.startsWith(`${base}/solves`) },
+    { href: `${base}/activity`, label: 'Activity', active: pathname.startsWith(`${base}/activity`) },
     { href: `${base}/settings`, label: 'Settings', active: pathname.startsWith(`${base}/settings`) },
   ];
   return (

@@ -54,7 +54,7 @@ describe('SVG reader', () => {
     expect(poly?.type === 'polygon' && Math.abs(signedArea(poly.points))).toBeCloseTo(8, 10);
     const c = d.shapes.find((s) => s.type === 'circle');
     expect(c).toMatchObject({ type: 'circle' });
-    expect(c!.type === 'circle' && c.r).toBeCloseTo(2, 12);
+    expect(c?.type === 'circle' && c.r).toBeCloseTo(2, 12);
   });
 
   it('an ellipse becomes a polygon with a warning; its area approaches πab', () => {

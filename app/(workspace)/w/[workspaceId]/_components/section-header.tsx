@@ -143,6 +143,9 @@ export function SectionHeader({
           ) : (
             <span>No revision yet</span>
           )}
+          <Link href={`/w/${workspaceId}/sections/${section.id}/history`} className="ml-1 font-medium text-accent hover:underline" data-testid="section-history-link">
+            History and files
+          </Link>
         </p>
         {canEdit && !editing && !deleted ? (
           <div className="ml-auto flex items-center gap-1.5">
