@@ -79,8 +79,9 @@ export function discretise(input: DiscreteInput): Discretisation {
   const nx = xs.length;
   const ny = ys.length;
   const N = nx * ny;
-  const span = Math.max(xs[nx - 1] - xs[0], ys[ny - 1] - ys[0]);
-  const tol = 1e-10 * Math.max(1, span);
+  // Coordinates are scaled (structure size 1) and nodes on key lines carry the shapes' own
+  // coordinates, so a tolerance near round-off suffices; a larger one would shift surfaces.
+  const tol = 1e-12;
 
   // ---- node classes
   const nodeShape = new Int32Array(N).fill(-1);

@@ -176,7 +176,7 @@ export function buildMesh(input: MeshInput, p: MeshParams, maxNodes = Infinity):
   if (top !== undefined) planeLines.push({ axis: 1, at: top });
 
   // Local sizes at each point: `gap`, the distance to every other conductor outline and plane
-  // (for a polygon also its own non-adjacent edges), `gapD` the same to dielectric outlines,
+  // (and to its own shape's edges that do not end at the point), `gapD` the same to dielectric outlines,
   // and `own`, its own shape's size there. Singular points get spacing hSing × min(1, gap);
   // every point gets ≤ min(gap, gapD, own)/mGap, so each gap and each thin feature holds at
   // least mGap cells on the finest mesh.
@@ -186,7 +186,6 @@ export function buildMesh(input: MeshInput, p: MeshParams, maxNodes = Infinity):
     let gapD = Infinity;
     outlines.forEach((o, si) => {
       const own = si === q.shape;
-      if (own && shapes[si].type !== 'polygon') return;
       let best = Infinity;
       const sg = o.segs;
       for (let k = 0; k < sg.length; k += 4) {
