@@ -25,6 +25,9 @@ import type { ResolvedSection, Section } from '../section/schema';
 import { C_LIGHT, EPS0, MU0 } from './constants';
 import { detectPlates } from './plates';
 import { toProblem } from './to-problem';
+import { lineAnalysis } from '../analysis/analyse';
+import { computeLosses } from '../analysis/losses';
+import { computePeakField, FIELD_CAUTION } from '../analysis/peak-field';
 import { RESULT_FORMAT, type LineValues, type PlatesValues, type SectionFields, type SectionResult } from './types';
 
 export { SectionError } from '../section/issues';
@@ -39,6 +42,15 @@ export interface SolveSectionOptions {
   tolerance?: number;
   /** Mesh preset; overrides the section's `mesh.preset`. */
   preset?: MeshPreset;
+  /** Adds `losses` at this frequency, Hz (lib/analysis/losses.ts). */
+  frequencyHz?: number;
+  /** Adds `peakField` for this voltage on the first signal net, V (lib/analysis/peak-field.ts). */
+  volts?: number;
+  /** Voltage per signal net for `peakField` (overrides the first-net default). */
+  voltages?: Record<string, number>;
+  /** Coupled length (m) and rise time (s) for the crosstalk figures. */
+  lengthM?: number;
+  riseTimeS?: number;
 }
 
 export interface SolveSectionOutput {
@@ -188,7 +200,7 @@ export function solveSection(section: Section, opts: SolveSectionOptions = {}): 
     ...(opts.onProgress ? { onProgress: opts.onProgress } : {}),
     ...(opts.isCancelled ? { isCancelled: opts.isCancelled } : {}),
     ...(opts.tolerance !== undefined ? { tolerance: opts.tolerance } : {}),
-    keepFields: opts.keepFields ?? false,
+    keepFields: (opts.keepFields ?? false) || opts.frequencyHz !== undefined || opts.volts !== undefined,
   });
   const ms = now() - t0;
   const result = buildResult(
@@ -198,16 +210,25 @@ export function solveSection(section: Section, opts: SolveSectionOptions = {}): 
     warnings.map((w) => w.message),
     ms,
   );
-  const out: SolveSectionOutput = { result };
-  if (opts.keepFields && sol.fields) {
-    out.fields = {
-      xs: sol.mesh.xs,
-      ys: sol.mesh.ys,
-      potentials: sol.fields.potentials,
-      cellEpsR: sol.fields.cellEpsR,
-      nodeNet: sol.fields.nodeNet,
-      netNames,
-    };
+  Object.assign(result, lineAnalysis(result, { lengthM: opts.lengthM, riseTimeS: opts.riseTimeS }));
+  const fields: SectionFields | undefined = sol.fields
+    ? {
+        xs: sol.mesh.xs,
+        ys: sol.mesh.ys,
+        potentials: sol.fields.potentials,
+        cellEpsR: sol.fields.cellEpsR,
+        nodeNet: sol.fields.nodeNet,
+        netNames,
+        ...(sol.fields.vacuumPotentials ? { vacuumPotentials: sol.fields.vacuumPotentials } : {}),
+      }
+    : undefined;
+  if (fields && opts.frequencyHz !== undefined) result.losses = computeLosses(resolved, result, fields, { frequencyHz: opts.frequencyHz });
+  if (fields && opts.volts !== undefined) {
+    const peak = computePeakField(resolved, result, fields, { volts: opts.volts, ...(opts.voltages ? { voltages: opts.voltages } : {}) });
+    result.peakField = peak.entries;
+    result.peakFieldInfo = { volts: opts.volts, voltages: peak.voltages, caution: FIELD_CAUTION };
   }
+  const out: SolveSectionOutput = { result };
+  if (opts.keepFields && fields) out.fields = fields;
   return out;
 }

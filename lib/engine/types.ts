@@ -89,6 +89,81 @@ export interface SectionResult {
   timing: { ms: number; setupMs: number; solveMs: number };
   /** Warnings worth showing (for example convergence not monotone). */
   warnings: string[];
+  /** Inductance matrix per unit length, H/m: μ0 ε0 C0⁻¹ over the signal nets (lib/analysis/lines.ts). */
+  inductancePerM?: number[][];
+  /** Exactly two signal nets: even/odd modes, differential and common-mode impedance (public CLI contract). */
+  modes?: {
+    even: { z0Ohm: number; epsEff: number };
+    odd: { z0Ohm: number; epsEff: number };
+    differentialOhm: number;
+    commonOhm: number;
+    symmetric?: boolean;
+  };
+  /** Three or more signal nets: the propagation modes, by increasing εeff (public CLI contract). */
+  modal?: { z0Ohm: number; epsEff: number; voltages?: number[] }[];
+  /** Two or more signal nets: weak-coupling crosstalk between neighbouring pairs (lib/analysis/lines.ts). */
+  crosstalk?: CrosstalkEntry[];
+  /** With a frequency (CLI --frequency): dielectric and conductor losses (lib/analysis/losses.ts). */
+  losses?: LossValues;
+  /** With a voltage (CLI --volts): peak |E| per material and per conductor (lib/analysis/peak-field.ts). */
+  peakField?: PeakFieldEntry[];
+  /** How the peak field was computed (voltages applied, caution text). */
+  peakFieldInfo?: { volts: number; voltages: Record<string, number>; caution: string };
+}
+
+export interface CrosstalkEntry {
+  aggressor: string;
+  victim: string;
+  /** Saturated near-end coefficient, dimensionless. */
+  nearEnd: number;
+  /** Far-end coefficient per length, s/m (× length / rise time = far-end noise ratio). */
+  farEndPerLength: number;
+  /** For the coupled length and rise time given (when given). */
+  lengthM?: number;
+  riseTimeS?: number;
+  farEnd?: number;
+  saturationLengthM?: number;
+}
+
+export interface LossValues {
+  frequencyHz: number;
+  /** Shunt conductance, S/m: a number for one signal net, the Maxwell-form matrix for several. */
+  gPerM: number | number[][];
+  /** Series resistance, Ω/m: a number for one signal net, a matrix for several (ground return included). */
+  rPerM: number | number[][];
+  /** Attenuation, dB/m: a number for one signal net; for several, one per mode (same order as modes even/odd or modal). */
+  alphaDbPerM: number | number[];
+  /** DC resistance of each signal net's own conductors, Ω/m (same order as nets). */
+  rDcPerM?: (number | null)[];
+  /** Skin depth per net name (and "(boundary)" for ground planes), m. */
+  skinDepthM?: Record<string, number>;
+  /** Surface resistance per net name, Ω. */
+  surfaceResistanceOhm?: Record<string, number>;
+  /** Where the incremental-inductance rule is not trustworthy (skin depth vs thickness, zero-thickness strips). */
+  warnings?: string[];
+  /** Plain words on the method. */
+  method?: string;
+}
+
+export interface PeakFieldEntry {
+  /** Material id, "background", or a net name (along that conductor). */
+  where: string;
+  kind?: 'material' | 'conductor';
+  /** Largest |E| found, V/m (mesh-dependent where singular). */
+  vPerM: number;
+  /** Position of the peak, metres (section coordinates × the unit's metres). */
+  x: number;
+  y: number;
+  /** True when the value grows with mesh refinement (a sharp corner or edge). */
+  singular: boolean;
+  /** Dielectric strength of the material there, V/m (typical figure, not a rating). */
+  strengthVPerM?: number;
+  /** strength / peak: above 1 means below the typical strength. */
+  margin?: number;
+  /** Suggested corner radius to tame a singular peak, m (common practice, no published source). */
+  suggestedCornerRadiusM?: number;
+  /** Peak |E| over cells twice as large (the coarser family spacing), V/m. */
+  coarserVPerM?: number;
 }
 
 /** Field arrays of the finest solve, for display and storage. */
@@ -104,4 +179,6 @@ export interface SectionFields {
   nodeNet: Int16Array;
   /** Net name of each nodeNet index (nets without shapes are left out of the solve). */
   netNames?: string[];
+  /** Vacuum-solve potentials of the finest mesh per signal net (only when a dielectric differs from the background). */
+  vacuumPotentials?: Float64Array[];
 }

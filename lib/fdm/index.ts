@@ -11,3 +11,4 @@ export type { Extrapolated } from './extrapolate';
 export { applyOperator } from './operator';
 export { setupHierarchy, solve } from './multigrid';
 export type { Hierarchy, HierarchyOptions } from './multigrid';
+export { insideGeometry } from './geometry';

@@ -308,7 +308,7 @@ export function solveProblem(problem: Problem, opts: SolveProblemOptions = {}): 
   const vacLevels: LevelResult[] = [];
   for (let level = FAMILY_LEVELS - 1; level >= 0; level--) {
     levels[level] = runLevel(level, false, keepFields && level === 0);
-    if (needVacuum) vacLevels[level] = runLevel(level, true, false);
+    if (needVacuum) vacLevels[level] = runLevel(level, true, keepFields && level === 0);
   }
   progress({ stage: 'refine', fraction: 1 });
 
@@ -396,6 +396,8 @@ export function solveProblem(problem: Problem, opts: SolveProblemOptions = {}): 
     const nodeNet = fin.disc.nodeNet;
     for (let k = 0; k < nodeNet.length; k++) if (nodeNet[k] === planeNet) nodeNet[k] = -2;
     out.fields = { potentials: fin.potentials, cellEpsR: fin.disc.cellEpsR, nodeNet };
+    // vacuum solve of the finest mesh (only when a dielectric differs from the background)
+    if (needVacuum && vacLevels[0]?.potentials) out.fields.vacuumPotentials = vacLevels[0].potentials;
   }
   return out;
 }

@@ -141,7 +141,13 @@ export interface ProblemSolution {
   mesh: Mesh & { nodes: number; finestSpacing: number; preset: string };
   /** Finest mesh, dielectric solve: one potential per signal net at 1 V (others 0). */
   /** nodeNet: index into problem.nets for conductor nodes, −1 for free nodes, −2 for ground-plane nodes. */
-  fields?: { potentials: Float64Array[]; cellEpsR: Float32Array; nodeNet: Int16Array };
+  fields?: {
+    potentials: Float64Array[];
+    cellEpsR: Float32Array;
+    nodeNet: Int16Array;
+    /** Finest mesh, vacuum solve (every εr = 1), one per signal net; absent when the medium is uniform (then equal to `potentials`). */
+    vacuumPotentials?: Float64Array[];
+  };
   solver: { iterations: number; relResidual: number; method: string };
   timing: { setupMs: number; solveMs: number; totalMs: number };
   warnings: string[];
