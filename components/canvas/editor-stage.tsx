@@ -273,6 +273,7 @@ export function EditorStage(props: EditorStageProps) {
 
   const onPointerDown = (e: Konva.KonvaEventObject<PointerEvent>) => {
     const sp = pointer();
+    console.log('DBG down', JSON.stringify(sp), tool, readOnly, e.evt.button, spaceDown.current);
     if (!sp) return;
     const evt = e.evt;
     altDown.current = evt.altKey;
@@ -411,6 +412,7 @@ export function EditorStage(props: EditorStageProps) {
 
   const endGesture = () => {
     const m = mode.current;
+    console.log('DBG up', m.kind, JSON.stringify(pointer()));
     mode.current = { kind: 'idle' };
     const sp = pointer();
     const v = viewRef.current;
@@ -445,6 +447,7 @@ export function EditorStage(props: EditorStageProps) {
         if (!sp) return;
         const b = snapPoint(toWorld(v, sp), m.targets, snapOpts()).point;
         const g = geometryFromDrag(m.tool, m.a, b, 2 / v.scale);
+        console.log('DBG create', JSON.stringify(m.a), JSON.stringify(b), JSON.stringify(g));
         if (g) onCreate(m.tool, g);
         return;
       }

@@ -61,7 +61,7 @@ export function structureRect(section: ResolvedSection | null, fields: SectionFi
     // fall back to the conductor nodes
     const nx = fields.xs.length;
     for (let q = 0; q < fields.nodeNet.length; q++) {
-      if (fields.nodeNet[q]! < 0) continue;
+      if (fields.nodeNet[q]! < 0) continue; // free (−1) or a boundary plane (−2)
       const i = q % nx;
       const j = (q - i) / nx;
       x0 = Math.min(x0, fields.xs[i]!);
@@ -115,7 +115,7 @@ export function buildFieldModel(
   for (let j = 0; j < ny - 1; j++) {
     for (let i = 0; i < cx; i++) {
       const k = j * nx + i;
-      if (nn[k]! >= 0 && nn[k + 1]! >= 0 && nn[k + nx]! >= 0 && nn[k + nx + 1]! >= 0) conductorCell[j * cx + i] = 1;
+      if (nn[k]! !== -1 && nn[k + 1]! !== -1 && nn[k + nx]! !== -1 && nn[k + nx + 1]! !== -1) conductorCell[j * cx + i] = 1;
     }
   }
   const free = (c: number) => conductorCell[c] === 0;
@@ -174,7 +174,7 @@ export function buildFieldModel(
         for (let q = 0; q < nn.length; q++) if (nn[q]! > maxNet) maxNet = nn[q]!;
         const voltsByNodeNet = new Array<number>(Math.max(0, maxNet + 1)).fill(0);
         result.nets.forEach((name, k) => {
-          const idx = nodeNetIndexOf(section, result, name, k);
+          const idx = nodeNetIndexOf(section, fields.netNames, name, k);
           if (idx >= 0 && idx < voltsByNodeNet.length) voltsByNodeNet[idx] = drive.volts[k] ?? 0;
         });
         lines = fieldLines(grid, phi, cells, nn, voltsByNodeNet, { linesPerNet });
@@ -194,10 +194,14 @@ function scaled(p: Float64Array, v: number): Float64Array {
 }
 
 /**
- * The nodeNet value of signal net `name` (matrix position k): its index among the section's
- * nets, as the engine numbers them; position k when the section is not at hand.
+ * The nodeNet value of signal net `name` (matrix position k): its index in the engine's
+ * `netNames` when known, else among the section's nets, else position k.
  */
-export function nodeNetIndexOf(section: ResolvedSection | null, _result: SectionResult, name: string, k: number): number {
+export function nodeNetIndexOf(section: ResolvedSection | null, netNames: readonly string[] | undefined, name: string, k: number): number {
+  if (netNames) {
+    const i = netNames.indexOf(name);
+    if (i >= 0) return i;
+  }
   if (!section) return k;
   const idx = section.nets.findIndex((n) => n.name === name);
   return idx >= 0 ? idx : k;

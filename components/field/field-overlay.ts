@@ -46,7 +46,7 @@ export function paintOverlay(result: SectionResult, fields: SectionFields, secti
     const i = c % cx;
     const j = (c - i) / cx;
     const k = j * nx + i;
-    return nn[k]! >= 0 && nn[k + 1]! >= 0 && nn[k + nx]! >= 0 && nn[k + nx + 1]! >= 0;
+    return nn[k]! !== -1 && nn[k + 1]! !== -1 && nn[k + nx]! !== -1 && nn[k + nx + 1]! !== -1;
   };
   let img;
   if (kind === 'field') {

@@ -99,6 +99,8 @@ export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }:
 
   return (
     <div className={cn('flex flex-col gap-4 text-sm text-ink', className)} data-testid="results-panel">
+      {/* the exact numbers, for scripts and tests that compare with the CLI */}
+      <output hidden data-testid="result-json" data-json={JSON.stringify({ capacitance: result.capacitance, line: result.line, mesh: result.mesh })} />
       <div className="flex flex-wrap items-end gap-3">
         <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
           Per-length unit

@@ -6,7 +6,7 @@
  * Header, 32 bytes, little-endian:
  *   0  "EFLD"            magic
  *   4  u16 version       (1)
- *   6  u16 flags         (0)
+ *   6  u16 flags         bit 0: a net-names segment follows nodeNet
  *   8  u32 nx            nodes along x
  *  12  u32 ny            nodes along y
  *  16  u32 fields        potential fields (one per signal net)
@@ -14,7 +14,8 @@
  *  24  u32 crc32         CRC-32 (IEEE 802.3) of the inflated payload
  *  28  u32 deflatedBytes length of the compressed payload that follows the header
  * Payload (inflated): xs f64[nx], ys f64[ny], potentials f64[fields][nx*ny],
- *   cellEpsR f32[(nx−1)*(ny−1)], nodeNet i16[nx*ny].
+ *   cellEpsR f32[(nx−1)*(ny−1)], nodeNet i16[nx*ny], then with flag bit 0: u32 n and n bytes
+ *   of UTF-8 JSON, the list of net names that nodeNet indexes (at most 64 KiB).
  * Pure TypeScript (no DOM, no Node APIs): used by the browser, the route handler and tests.
  */
 import { deflateSync, inflateSync } from 'fflate';
@@ -24,13 +25,19 @@ export const FIELD_BLOB_VERSION = 1;
 export const FIELD_BLOB_HEADER_BYTES = 32;
 /** Largest inflated payload accepted, bytes. */
 export const FIELD_BLOB_MAX_PAYLOAD = 160 * 1024 * 1024;
+/** Largest net-names segment, bytes. */
+export const FIELD_BLOB_MAX_NAMES = 64 * 1024;
+const FLAG_NAMES = 1;
 
 export interface FieldData {
   xs: Float64Array;
   ys: Float64Array;
   potentials: Float64Array[];
   cellEpsR: Float32Array;
+  /** Conductor net index per node (into netNames), −1 free, −2 on a ground-boundary plane. */
   nodeNet: Int16Array;
+  /** Net name of each nodeNet index, when known. */
+  netNames?: string[];
 }
 
 export type FieldBlobErrorCode =
@@ -56,6 +63,7 @@ export class FieldBlobError extends Error {
 
 export interface FieldBlobHeader {
   version: number;
+  flags: number;
   nx: number;
   ny: number;
   fields: number;
@@ -95,7 +103,9 @@ export function encodeFieldBlob(f: FieldData, level: 0 | 1 | 2 | 3 | 4 | 5 | 6 |
   for (const p of f.potentials) if (p.length !== nodes) throw new RangeError(`a potential has ${p.length} values, the mesh ${nodes} nodes`);
   if (f.cellEpsR.length !== (nx - 1) * (ny - 1)) throw new RangeError('cellEpsR does not match the mesh');
   if (f.nodeNet.length !== nodes) throw new RangeError('nodeNet does not match the mesh');
-  const payloadBytes = payloadBytesFor(nx, ny, f.potentials.length);
+  const names = f.netNames ? new TextEncoder().encode(JSON.stringify(f.netNames)) : null;
+  if (names && names.length > FIELD_BLOB_MAX_NAMES) throw new RangeError('net names are too long for a field blob');
+  const payloadBytes = payloadBytesFor(nx, ny, f.potentials.length) + (names ? 4 + names.length : 0);
   const payload = new Uint8Array(payloadBytes);
   let o = 0;
   const put = (a: ArrayBufferView) => {
@@ -109,12 +119,17 @@ export function encodeFieldBlob(f: FieldData, level: 0 | 1 | 2 | 3 | 4 | 5 | 6 |
   for (const p of f.potentials) put(p);
   put(f.cellEpsR);
   put(f.nodeNet);
+  if (names) {
+    new DataView(payload.buffer).setUint32(o, names.length, true);
+    payload.set(names, o + 4);
+    o += 4 + names.length;
+  }
   const deflated = deflateSync(payload, { level });
   const out = new Uint8Array(FIELD_BLOB_HEADER_BYTES + deflated.length);
   const dv = new DataView(out.buffer);
   for (let q = 0; q < 4; q++) out[q] = FIELD_BLOB_MAGIC.charCodeAt(q);
   dv.setUint16(4, FIELD_BLOB_VERSION, true);
-  dv.setUint16(6, 0, true);
+  dv.setUint16(6, names ? FLAG_NAMES : 0, true);
   dv.setUint32(8, nx, true);
   dv.setUint32(12, ny, true);
   dv.setUint32(16, f.potentials.length, true);
@@ -138,6 +153,7 @@ export function readFieldBlobHeader(blob: Uint8Array): FieldBlobHeader {
   if (version !== FIELD_BLOB_VERSION) throw new FieldBlobError('bad_version', `field data version ${version} is not supported (expected ${FIELD_BLOB_VERSION})`);
   const h: FieldBlobHeader = {
     version,
+    flags: dv.getUint16(6, true),
     nx: dv.getUint32(8, true),
     ny: dv.getUint32(12, true),
     fields: dv.getUint32(16, true),
@@ -150,7 +166,9 @@ export function readFieldBlobHeader(blob: Uint8Array): FieldBlobHeader {
   if (expected > FIELD_BLOB_MAX_PAYLOAD) {
     throw new FieldBlobError('too_large', `field data would inflate to ${expected} bytes, more than the limit of ${FIELD_BLOB_MAX_PAYLOAD}`);
   }
-  if (h.payloadBytes !== expected) {
+  if (h.flags & ~FLAG_NAMES) throw new FieldBlobError('bad_version', `field data uses flags ${h.flags} that this version does not know`);
+  const withNames = (h.flags & FLAG_NAMES) !== 0;
+  if (withNames ? h.payloadBytes < expected + 4 || h.payloadBytes > expected + 4 + FIELD_BLOB_MAX_NAMES : h.payloadBytes !== expected) {
     throw new FieldBlobError('bad_size', `field data header says ${h.payloadBytes} payload bytes, but ${h.nx}×${h.ny} nodes and ${h.fields} fields need ${expected}`);
   }
   if (h.deflatedBytes !== blob.length - FIELD_BLOB_HEADER_BYTES) {
@@ -208,6 +226,26 @@ export function decodeFieldBlob(blob: Uint8Array, expect: DecodeExpectation = {}
   const cellEpsR = new Float32Array(buf, o, (h.nx - 1) * (h.ny - 1));
   o += 4 * cellEpsR.length;
   const nodeNet = new Int16Array(buf, o, nodes);
+  o += 2 * nodes;
+  let netNames: string[] | undefined;
+  if (h.flags & FLAG_NAMES) {
+    const n = new DataView(buf).getUint32(o, true);
+    if (o + 4 + n !== h.payloadBytes) throw new FieldBlobError('bad_size', 'field data has a net-names segment of the wrong length');
+    let parsed: unknown;
+    try {
+      parsed = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(new Uint8Array(buf, o + 4, n)));
+    } catch {
+      throw new FieldBlobError('bad_values', 'field data has unreadable net names');
+    }
+    if (!Array.isArray(parsed) || parsed.length > 64 || !parsed.every((x) => typeof x === 'string' && x.length <= 200)) {
+      throw new FieldBlobError('bad_values', 'field data has invalid net names');
+    }
+    netNames = parsed as string[];
+  }
+  for (let q = 0; q < nodes; q++) {
+    const v = nodeNet[q]!;
+    if (v < -2 || (netNames ? v >= netNames.length : v >= 64)) throw new FieldBlobError('bad_values', `field data has a conductor index ${v} that names no net`);
+  }
   for (let i = 0; i < h.nx; i++) {
     if (!Number.isFinite(xs[i]!) || (i > 0 && !(xs[i]! > xs[i - 1]!))) throw new FieldBlobError('bad_values', 'field data has mesh x coordinates that are not finite and increasing');
   }
@@ -217,7 +255,7 @@ export function decodeFieldBlob(blob: Uint8Array, expect: DecodeExpectation = {}
   for (const p of potentials) {
     for (let q = 0; q < nodes; q++) if (!Number.isFinite(p[q]!)) throw new FieldBlobError('bad_values', 'field data holds a potential that is not a finite number');
   }
-  return { xs, ys, potentials, cellEpsR, nodeNet };
+  return netNames ? { xs, ys, potentials, cellEpsR, nodeNet, netNames } : { xs, ys, potentials, cellEpsR, nodeNet };
 }
 
 function littleEndian(): boolean {

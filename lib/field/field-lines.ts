@@ -23,7 +23,8 @@ export interface FieldLineOptions {
 
 /**
  * @param phi the potential (V) to trace
- * @param nodeNet conductor net index per node, −1 where free
+ * @param nodeNet conductor net index per node, −1 where free (any other negative value, such as −2 for a
+ *   ground-boundary plane, counts as a conductor that is not driven)
  * @param volts drive per net index (lines start on nets with v ≠ 0, along E where v > 0, against E where v < 0)
  * @returns polylines, flat [x0, y0, x1, y1, ...] in metres
  */
@@ -107,7 +108,7 @@ function trace(
     let other = false;
     let own = false;
     for (const c of corners) {
-      if (c >= 0 && c !== startNet) other = true;
+      if (c !== -1 && c !== startNet) other = true;
       if (c === startNet) own = true;
     }
     if (other) break; // reached another conductor

@@ -74,6 +74,9 @@ export interface SolveToFieldResult {
   preset: string;
   /** Time of the warm-up solve (worker start and code load included), ms. */
   coldMs: number;
+  /** The solved values (F/m, Ω): the same as `npm run solve` gives for the same section and preset. */
+  c11PerM: number;
+  z0Ohm: number;
 }
 
 export async function run(): Promise<SolveToFieldResult> {
@@ -111,16 +114,22 @@ export async function run(): Promise<SolveToFieldResult> {
     const ms = await once();
     const info = await page.getByTestId('results-solve-info').innerText();
     const engineMs = Number(/Solve time\s+([\d.]+)\s*s/.exec(info)?.[1] ?? NaN) * 1000;
-    const nodesMatch = /=\s*([\d,]+)\s*nodes\s*\((\w+)\)/.exec(info);
     const iterations = Number(/Iterations\s+(\d+)/.exec(info)?.[1] ?? NaN);
+    const json = JSON.parse((await page.getByTestId('result-json').first().getAttribute('data-json')) ?? '{}') as {
+      capacitance?: { maxwell?: number[][] };
+      line?: { z0Ohm?: number };
+      mesh?: { nodes?: number; preset?: string };
+    };
     return {
       ms: Math.round(ms),
       engineMs: Math.round(engineMs),
       overheadMs: Math.round(ms - engineMs),
-      nodes: Number((nodesMatch?.[1] ?? 'NaN').replace(/,/g, '')),
+      nodes: json.mesh?.nodes ?? NaN,
       iterations,
-      preset: nodesMatch?.[2] ?? 'standard',
+      preset: json.mesh?.preset ?? 'standard',
       coldMs: Math.round(coldMs),
+      c11PerM: json.capacitance?.maxwell?.[0]?.[0] ?? NaN,
+      z0Ohm: json.line?.z0Ohm ?? NaN,
     };
   } finally {
     await browser.close();

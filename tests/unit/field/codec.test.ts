@@ -47,6 +47,19 @@ describe('field blob codec', () => {
     expect(Array.from(g.nodeNet)).toEqual(Array.from(f.nodeNet));
   });
 
+  it('round-trips the net names that nodeNet indexes', () => {
+    const f = { ...sample(6, 5, 1), netNames: ['trace', 'gnd', 'Ω-net'] };
+    f.nodeNet[3] = 2;
+    f.nodeNet[4] = -2;
+    const g = decodeFieldBlob(encodeFieldBlob(f), { nx: 6, ny: 5, fields: 1 });
+    expect(g.netNames).toEqual(['trace', 'gnd', 'Ω-net']);
+    expect(g.nodeNet[3]).toBe(2);
+    expect(g.nodeNet[4]).toBe(-2);
+    const bad = { ...sample(6, 5, 1), netNames: ['a'] };
+    bad.nodeNet[0] = 1; // names no net
+    expect(codeOf(() => decodeFieldBlob(encodeFieldBlob(bad)))).toBe('bad_values');
+  });
+
   it('refuses a flipped bit in the compressed data', () => {
     const blob = encodeFieldBlob(sample());
     let refused = 0;
