@@ -17,8 +17,10 @@ import type { SectionResult } from '../lib/engine/types';
 import { UNIT_LABELS } from '../lib/section/units';
 import { MESH_PRESETS } from '../lib/section/schema';
 import type { MeshPreset } from '../lib/fdm/types';
+import { analysisText } from '../lib/analysis/text';
 
 const USAGE = `usage: npm run --silent solve -- <section.json> [--json] [--preset quick|standard|precise] [--tolerance <x>] [--progress]
+       [--frequency <Hz>] [--volts <V>] [--length <m>] [--rise-time <s>]
 
 Solves an Edgefield section file ("edgefield.section/1", see docs/section-format.md) and
 prints the capacitance matrix, error estimate, line values and plate values.
@@ -26,6 +28,10 @@ prints the capacitance matrix, error estimate, line values and plate values.
   --preset P     mesh preset, overriding the file's own (default: the file's, else standard)
   --tolerance X  relative residual of each linear solve (default 1e-10)
   --progress     report progress on stderr
+  --frequency F  add losses at F hertz: G', R', attenuation (materials' loss tangents, nets' conductivity)
+  --volts V      add the peak field with V volts on the first signal net (others and the reference at 0 V)
+  --length L     coupled length in metres for the crosstalk figures
+  --rise-time T  rise time in seconds for the crosstalk figures
 Exit status: 0 solved, 2 invalid input, 1 other failure.`;
 
 class UsageError extends Error {}
@@ -36,6 +42,10 @@ interface Args {
   preset?: MeshPreset;
   tolerance?: number;
   progress: boolean;
+  frequencyHz?: number;
+  volts?: number;
+  lengthM?: number;
+  riseTimeS?: number;
 }
 
 function parseArgs(argv: string[]): Args | 'help' {
@@ -61,6 +71,22 @@ function parseArgs(argv: string[]): Args | 'help' {
       const t = Number(value('--tolerance'));
       if (!(t > 0 && t < 1)) throw new UsageError('--tolerance must be a number between 0 and 1, for example 1e-10');
       out.tolerance = t;
+    } else if (a === '--frequency' || a.startsWith('--frequency=')) {
+      const f = Number(value('--frequency'));
+      if (!(f > 0 && Number.isFinite(f))) throw new UsageError('--frequency must be a positive number of hertz, for example 1e9');
+      out.frequencyHz = f;
+    } else if (a === '--volts' || a.startsWith('--volts=')) {
+      const v = Number(value('--volts'));
+      if (!Number.isFinite(v) || v === 0) throw new UsageError('--volts must be a non-zero number of volts, for example 1000');
+      out.volts = v;
+    } else if (a === '--length' || a.startsWith('--length=')) {
+      const v = Number(value('--length'));
+      if (!(v > 0 && Number.isFinite(v))) throw new UsageError('--length must be a positive number of metres');
+      out.lengthM = v;
+    } else if (a === '--rise-time' || a.startsWith('--rise-time=')) {
+      const v = Number(value('--rise-time'));
+      if (!(v > 0 && Number.isFinite(v))) throw new UsageError('--rise-time must be a positive number of seconds');
+      out.riseTimeS = v;
     } else if (a.startsWith('-') && a !== '-') throw new UsageError(`unknown option ${a}`);
     else if (file === undefined) file = a;
     else throw new UsageError(`only one section file at a time (got "${file}" and "${a}")`);
@@ -143,6 +169,8 @@ function readable(file: string, units: string, r: SectionResult): string {
     if (p.solvedPerM !== undefined) out.push(`  solved          = ${sig(p.solvedPerM * 1e12, 6)} pF/m  ±${pct(e.relative)}`);
     out.push(`  solved / ideal  = ${sig(p.solvedOverIdeal, 5)} (fringing adds ${sig((p.solvedOverIdeal - 1) * 100, 3)} %)`);
   }
+  const extra = analysisText(r);
+  if (extra) out.push('', extra);
   out.push('');
   out.push(`Mesh: ${r.mesh.nx} × ${r.mesh.ny} = ${r.mesh.nodes} nodes (finest member), preset ${r.mesh.preset}, finest spacing ${sig(r.mesh.finestM * 1e6, 4)} µm`);
   out.push(`Solver: ${r.solver.method}, ${r.solver.iterations} iterations, relative residual ${r.solver.relResidual.toExponential(1)}`);
@@ -192,6 +220,10 @@ function main(): void {
   const opts: SolveSectionOptions = {};
   if (args.preset) opts.preset = args.preset;
   if (args.tolerance !== undefined) opts.tolerance = args.tolerance;
+  if (args.frequencyHz !== undefined) opts.frequencyHz = args.frequencyHz;
+  if (args.volts !== undefined) opts.volts = args.volts;
+  if (args.lengthM !== undefined) opts.lengthM = args.lengthM;
+  if (args.riseTimeS !== undefined) opts.riseTimeS = args.riseTimeS;
   if (args.progress) {
     let last = 0;
     opts.onProgress = (p) => {
