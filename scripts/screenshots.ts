@@ -157,7 +157,19 @@ async function main() {
   console.log(`screenshots in ${path.relative(process.cwd(), OUT)}/`);
 }
 
-main().catch((e) => {
-  console.error(e);
-  process.exit(1);
+let finished = false;
+process.on('beforeExit', () => {
+  if (!finished) {
+    console.error('screenshots: stopped before finishing (the browser or the server went away)');
+    process.exitCode = 1;
+  }
 });
+
+main()
+  .then(() => {
+    finished = true;
+  })
+  .catch((e) => {
+    console.error(e);
+    process.exit(1);
+  });
