@@ -291,6 +291,33 @@ export const ROUTES: RouteRow[] = [
     rawBody: () => ({ contentType: 'text/csv', data: new TextEncoder().encode(MEASURED_CSV) }),
     ok: [201],
   },
+  // Read-only share links and the public-links setting (issue 7, TEAMWORK).
+  {
+    file: `${WS}/share-links`,
+    method: 'GET',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA }),
+    query: '?targetType=section',
+    ok: [200],
+  },
+  {
+    file: `${WS}/share-links`,
+    method: 'POST',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (w) => ({ targetType: 'section', targetId: w.sectionA, expiresInDays: 7 }),
+    ok: [201],
+  },
+  {
+    // Idempotent: the editor revokes, the owner's second revoke also answers 200.
+    file: `${WS}/share-links/[linkId]`,
+    method: 'DELETE',
+    access: 'editor',
+    params: (w) => ({ workspaceId: w.wsA, linkId: w.shareLinkA }),
+    foreignParams: (w) => ({ workspaceId: w.wsA, linkId: w.shareLinkB }),
+    ok: [200],
+  },
+  { file: `${WS}/public-links`, method: 'PUT', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), body: () => ({ allow: false }), ok: [200] },
   // Auth and demo routes: not workspace data.
   { file: 'demo/mailbox', method: 'GET', access: 'public', ok: [200] },
 ];

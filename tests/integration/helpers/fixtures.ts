@@ -3,7 +3,7 @@
  * (an outsider who owns it), each with a section, a revision and a solve. All fictional.
  */
 import type { Db } from '@/db/client';
-import { files, invitations, memberships, sectionRevisions, sections, solves, users, workspaces } from '@/db/schema';
+import { files, invitations, shareLinks, memberships, sectionRevisions, sections, solves, users, workspaces } from '@/db/schema';
 import { RESULT_FORMAT } from '@/lib/engine/types';
 import { sectionSchema, type Section } from '@/lib/section/schema';
 import { eq } from 'drizzle-orm';
@@ -26,6 +26,9 @@ export interface World {
   /** A measured-data CSV kept with each section (issue 7). */
   fileA: string;
   fileB: string;
+  /** Active read-only links to each section (issue 7). */
+  shareLinkA: string;
+  shareLinkB: string;
 }
 
 /** A small valid measured-data CSV (numbers invented for storage tests). */
@@ -122,6 +125,8 @@ export async function buildWorld(db: Db): Promise<World> {
   };
   const fileA = await mkFile(a!.id, sa.section, u.editor.id);
   const fileB = await mkFile(b!.id, sb.section, u.outsider.id);
+  const [la] = await db.insert(shareLinks).values({ workspaceId: a!.id, targetType: 'section', targetId: sa.section, tokenHash: 'fixture-share-a', createdBy: u.editor.id }).returning();
+  const [lb] = await db.insert(shareLinks).values({ workspaceId: b!.id, targetType: 'section', targetId: sb.section, tokenHash: 'fixture-share-b', createdBy: u.outsider.id }).returning();
   return {
     users: u,
     wsA: a!.id,
@@ -136,5 +141,7 @@ export async function buildWorld(db: Db): Promise<World> {
     invitationB: ib!.id,
     fileA,
     fileB,
+    shareLinkA: la!.id,
+    shareLinkB: lb!.id,
   };
 }

@@ -5,6 +5,7 @@ import { listMembers } from '@/db/queries/workspaces';
 import { requireWorkspaceMember } from '@/lib/server/access';
 import { WorkspaceNameForm } from '../_components/workspace-name-form';
 import { MembersPanel } from '@/components/teamwork/members-panel';
+import { PublicLinksSetting } from '@/components/teamwork/public-links-setting';
 import { listPendingInvitations } from '@/db/queries/invitations';
 import { planOf } from '@/lib/server/plans';
 
@@ -27,6 +28,7 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
           <WorkspaceNameForm workspaceId={workspaceId} name={workspace.name} canEdit={role === 'owner'} />
         </div>
       </Card>
+      <PublicLinksSetting workspaceId={workspaceId} allow={workspace.allowPublicLinks} canEdit={role === 'owner'} />
       <MembersPanel
         workspaceId={workspaceId}
         currentUserId={user.id}

@@ -11,6 +11,7 @@ import { Badge, RoleBadge } from '@/components/ui/badge';
 import { Time } from '@/components/ui/time';
 import { SavedSolveView } from '../_components/saved-solve-view';
 import { CommentThread } from '../_components/comment-thread';
+import { ShareLinksPanel } from '@/components/teamwork/share-links-panel';
 
 export const metadata: Metadata = { title: 'Solve' };
 export const dynamic = 'force-dynamic';
@@ -21,7 +22,7 @@ export const dynamic = 'force-dynamic';
  */
 export default async function SolvePage({ params }: { params: Promise<{ workspaceId: string; solveId: string }> }) {
   const { workspaceId, solveId } = await params;
-  const { role } = await requireWorkspaceMember(workspaceId);
+  const { role, workspace } = await requireWorkspaceMember(workspaceId);
   const solve = await getSolve(workspaceId, solveId);
   if (!solve) notFound();
   const [revision, section, comments] = await Promise.all([
@@ -87,6 +88,9 @@ export default async function SolvePage({ params }: { params: Promise<{ workspac
           content={plain.content}
           hasField={plain.solve.hasField}
         />
+      </div>
+      <div className="mt-6 max-w-3xl">
+        <ShareLinksPanel workspaceId={workspaceId} targetType="solve" targetId={solve.id} canEdit={role !== 'viewer'} publicAllowed={workspace.allowPublicLinks} />
       </div>
       <div className="mt-6 max-w-3xl">
         <CommentThread workspaceId={workspaceId} solveId={solve.id} initial={plain.comments} />

@@ -9,6 +9,7 @@ import { Time } from '@/components/ui/time';
 import { MeasuredUpload } from '@/components/teamwork/measured-upload';
 import { RestoreRevisionButton } from '@/components/teamwork/restore-revision-button';
 import { SectionSketch, sketchFrame } from '@/components/teamwork/section-sketch';
+import { ShareLinksPanel } from '@/components/teamwork/share-links-panel';
 import { listSectionFiles, getSectionFile } from '@/db/queries/files';
 import { getRevision, getSection, listRevisions } from '@/db/queries/sections';
 import { listSolves } from '@/db/queries/solves';
@@ -47,7 +48,7 @@ export default async function HistoryPage({
 }) {
   const { workspaceId, sectionId } = await params;
   const sp = await searchParams;
-  const { role } = await requireWorkspaceMember(workspaceId);
+  const { role, workspace } = await requireWorkspaceMember(workspaceId);
   const section = await getSection(workspaceId, sectionId);
   if (!section) notFound();
   const canEdit = role === 'owner' || role === 'editor';
@@ -88,7 +89,7 @@ export default async function HistoryPage({
   return (
     <div className="mx-auto w-full max-w-page space-y-5 px-6 py-6">
       <PageHeader
-        title="History and files"
+        title="History, files and links"
         eyebrow={
           <Link href={base} className="hover:underline">
             {section.name}
@@ -284,6 +285,8 @@ export default async function HistoryPage({
           </p>
         </Card>
       ) : null}
+
+      <ShareLinksPanel workspaceId={workspaceId} targetType="section" targetId={sectionId} canEdit={canEdit} publicAllowed={workspace.allowPublicLinks} />
 
       <Card aria-labelledby="files-title" data-testid="section-files">
         <CardHeader id="files-title" title="Files" description="The original drawing this section was imported from, and measured data kept for comparison." />
