@@ -8,7 +8,7 @@
  */
 const nextConfig = {
   distDir: process.env.NEXT_DIST_DIR || '.next',
-  serverExternalPackages: ['@electric-sql/pglite'],
+  serverExternalPackages: ['@electric-sql/pglite', 'pdfkit'],
   typedRoutes: false,
   // Types are checked once, by `npm run typecheck` (first step of scripts/test.sh and CI), over
   // the whole tree including tests; the build does not repeat it (it doubled build time here).

@@ -244,6 +244,15 @@ export const ROUTES: RouteRow[] = [
     body: (_w, n) => ({ material: { id: `lab-resin-${n}`, name: `Lab resin ${n}`, epsR: 3.1 } }),
     ok: [201],
   },
+  // PDF report of a solve, sweep or fringing study computed in the browser (issue 6, ANALYSIS).
+  {
+    file: `${WS}/report`,
+    method: 'POST',
+    access: 'viewer',
+    params: (w) => ({ workspaceId: w.wsA }),
+    body: (_w, n) => ({ kind: 'solve', title: `Report ${n}`, tables: [{ id: 't', title: 'Values', columns: ['quantity', 'value'], rows: [['C', 1.5]] }] }),
+    ok: [200],
+  },
   // Drawing import and files kept with a section (issue 7, TEAMWORK).
   {
     file: `${WS}/imports`,
@@ -318,6 +327,10 @@ export const ROUTES: RouteRow[] = [
     ok: [200],
   },
   { file: `${WS}/public-links`, method: 'PUT', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), body: () => ({ allow: false }), ok: [200] },
+  // Notifications of the signed-in person (issue 7, TEAMWORK): any signed-in user.
+  { file: 'notifications', method: 'GET', access: 'user', ok: [200] },
+  { file: 'notifications/read', method: 'POST', access: 'user', ok: [200] },
+  { file: 'notifications/settings', method: 'PUT', access: 'user', body: () => ({ emailEnabled: true }), ok: [200] },
   // Auth and demo routes: not workspace data.
   { file: 'demo/mailbox', method: 'GET', access: 'public', ok: [200] },
 ];
