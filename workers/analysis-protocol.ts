@@ -23,10 +23,12 @@ export interface PointProgress {
   fraction?: number;
 }
 
+export type AnalyseOutcome = { ok: true; result: SectionResult } | { ok: false; message: string };
+
 export interface AnalysisWorkerApi {
   ping(): Promise<'pong'>;
   /** One solve with the analysis options (losses, peak field). */
-  analyse(section: Section, settings: AnalysisSettings): Promise<{ ok: true; result: SectionResult } | { ok: false; message: string }>;
+  analyse(section: Section, settings: AnalysisSettings): Promise<AnalyseOutcome>;
   sweep(
     req: { section: Section; target: SweepTarget; values: number[]; settings: AnalysisSettings },
     onPoint: (p: SweepPoint, index: number, total: number) => void,

@@ -24,6 +24,7 @@ import { FieldView } from '@/components/field/field-view';
 import { paintOverlay, type OverlayKind } from '@/components/field/field-overlay';
 import { ResultsPanel } from './results-panel';
 import { SolveBar } from './solve-workbench';
+import { AnalysisArea } from '@/components/analysis/analysis-area';
 
 const FieldKonvaLayer = dynamic(() => import('@/components/field/field-konva-layer').then((m) => m.FieldKonvaLayer), {
   ssr: false,
@@ -133,6 +134,17 @@ export function SectionSolveArea(props: SectionSolveAreaProps) {
           </Card>
         </div>
       ) : null}
+      <div className="px-4 pb-5">
+        <AnalysisArea
+          workspaceId={workspaceId}
+          sectionId={sectionId}
+          section={section}
+          canSolve={canSolve}
+          result={state.result}
+          fields={state.fields}
+          solvedSection={state.solvedSection}
+        />
+      </div>
     </div>
   );
 }

@@ -198,7 +198,7 @@ export async function renderReportPdf(req: ReportRequest, meta: { workspace: str
   }
   const half = (width - 12) / 2;
   if (section) {
-    doc.font('body-bold').fontSize(8).fillColor(SOFT).text('Drawing (conductors brown, dielectrics tinted, ground planes as lines)', left, top, { width: half });
+    doc.font('body-bold').fontSize(8).fillColor(SOFT).text('Drawing', left, top, { width: half });
     drawSection(doc, section, left, top + 12, half, boxH);
   }
   if (req.fieldImage) {

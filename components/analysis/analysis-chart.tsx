@@ -1,0 +1,62 @@
+'use client';
+/** A line chart of results against a swept value (recharts), log or linear x. */
+import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
+
+export interface ChartSeries {
+  name: string;
+  points: [number, number][];
+  dashed?: boolean;
+  /** Measured data: markers without a line. */
+  markersOnly?: boolean;
+}
+
+const COLOURS = ['#0f766e', '#b45309', '#6d28d9', '#64748b', '#be123c', '#1d4ed8', '#4d7c0f'];
+const fmt = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(3))));
+
+export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series: ChartSeries[]; logX?: boolean; xLabel: string; yLabel: string; testId?: string }) {
+  const usable = series.map((s) => ({ ...s, points: s.points.filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y) && (!logX || x > 0)) }));
+  const xs = usable.flatMap((s) => s.points.map((p) => p[0]));
+  if (xs.length === 0) return null;
+  return (
+    <figure className="w-full" data-testid={testId} aria-label={`${yLabel} against ${xLabel}`}>
+      <div className="h-72 w-full">
+        <ResponsiveContainer width="100%" height="100%">
+          <ComposedChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+            <CartesianGrid stroke="#e3e7ee" />
+            <XAxis
+              type="number"
+              dataKey="x"
+              scale={logX ? 'log' : 'linear'}
+              domain={[Math.min(...xs), Math.max(...xs)]}
+              allowDataOverflow
+              tickFormatter={fmt}
+              label={{ value: xLabel, position: 'insideBottom', offset: -12, fontSize: 12 }}
+              fontSize={11}
+            />
+            <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tickFormatter={fmt} fontSize={11} width={64} label={{ value: yLabel, angle: -90, position: 'insideLeft', fontSize: 12, style: { textAnchor: 'middle' } }} />
+            <Tooltip formatter={(v) => (typeof v === 'number' ? fmt(v) : String(v))} labelFormatter={(v) => `${xLabel}: ${typeof v === 'number' ? fmt(v) : String(v)}`} />
+            <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12 }} />
+            {usable.map((s, i) =>
+              s.markersOnly ? (
+                <Scatter key={s.name} name={s.name} data={s.points.map(([x, y]) => ({ x, y }))} fill={COLOURS[i % COLOURS.length]} isAnimationActive={false} />
+              ) : (
+                <Line
+                  key={s.name}
+                  name={s.name}
+                  data={s.points.map(([x, y]) => ({ x, y }))}
+                  dataKey="y"
+                  type="monotone"
+                  stroke={COLOURS[i % COLOURS.length]}
+                  strokeWidth={s.dashed ? 1.5 : 2}
+                  strokeDasharray={s.dashed ? '5 4' : undefined}
+                  dot={s.dashed ? false : { r: 3 }}
+                  isAnimationActive={false}
+                />
+              ),
+            )}
+          </ComposedChart>
+        </ResponsiveContainer>
+      </div>
+    </figure>
+  );
+}
