@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
 import { AccountMenu } from './account-menu';
+import { NotificationsBell } from '@/components/teamwork/notifications-bell';
 import { LogoMark } from './logo';
 import { WorkspaceNav } from './workspace-nav';
 import { WorkspaceSwitcher, type WorkspaceChoice } from './workspace-switcher';
@@ -44,6 +45,7 @@ export function AppHeader({
         ) : null}
         <div className="ml-auto flex items-center gap-3">
           {right}
+          {current ? <NotificationsBell workspaceId={current.id} /> : null}
           <AccountMenu name={user.name} email={user.email} roleLabel={current ? ROLE_LABEL[current.role] : undefined} />
         </div>
       </div>

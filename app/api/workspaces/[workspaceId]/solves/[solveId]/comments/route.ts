@@ -7,6 +7,7 @@ import { insertComment, listComments } from '@/db/queries/comments';
 import { requireWorkspaceRole } from '@/lib/server/access';
 import { apiHandler, json, notFound, parseJsonBody, type RouteCtx, readParams } from '@/lib/server/http';
 import { createCommentSchema } from '@/lib/validations/comment';
+import { notifyComment } from '@/lib/server/notify';
 
 export const dynamic = 'force-dynamic';
 type Ctx = RouteCtx<{ workspaceId: string; solveId: string }>;
@@ -27,5 +28,9 @@ export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
   const body = await parseJsonBody(req, createCommentSchema, { maxBytes: MAX_COMMENT_BODY_BYTES });
   const comment = await insertComment({ workspaceId, solveId, authorId: user.id, body: body.body });
   if (!comment) throw notFound('The solve');
+  // Issue 7: tell the solve's author and anyone @mentioned (never fails the comment).
+  await notifyComment({ workspaceId, solveId, commentId: comment.id, authorId: user.id, body: body.body }).catch((e) =>
+    console.error('Edgefield: comment notifications failed', e),
+  );
   return json({ comment }, 201);
 });
