@@ -115,6 +115,9 @@ export const workspaces = pgTable('workspaces', {
   allowPublicLinks: boolean('allow_public_links').notNull().default(false),
   /** Billing plan (issue 7): 'free' | 'team'. */
   plan: text('plan').notNull().default('free'),
+  /** The payment service's customer and subscription ids (issue 7); null until the owner upgrades. */
+  billingCustomerId: text('billing_customer_id'),
+  billingSubscriptionId: text('billing_subscription_id'),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
@@ -370,3 +373,11 @@ export const files = pgTable(
   },
   (t) => [index('files_section_idx').on(t.sectionId)],
 );
+
+/** Payment-service webhook events already applied (issue 7): a redelivered event changes nothing. */
+export const billingEvents = pgTable('billing_events', {
+  eventId: text('event_id').primaryKey(),
+  type: text('type').notNull(),
+  workspaceId: text('workspace_id').references(() => workspaces.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+});
