@@ -273,7 +273,6 @@ export function EditorStage(props: EditorStageProps) {
 
   const onPointerDown = (e: Konva.KonvaEventObject<PointerEvent>) => {
     const sp = pointer();
-    console.log('DBG down', JSON.stringify(sp), tool, readOnly, e.evt.button, spaceDown.current);
     if (!sp) return;
     const evt = e.evt;
     altDown.current = evt.altKey;
@@ -412,7 +411,6 @@ export function EditorStage(props: EditorStageProps) {
 
   const endGesture = () => {
     const m = mode.current;
-    console.log('DBG up', m.kind, JSON.stringify(pointer()));
     mode.current = { kind: 'idle' };
     const sp = pointer();
     const v = viewRef.current;
@@ -447,7 +445,6 @@ export function EditorStage(props: EditorStageProps) {
         if (!sp) return;
         const b = snapPoint(toWorld(v, sp), m.targets, snapOpts()).point;
         const g = geometryFromDrag(m.tool, m.a, b, 2 / v.scale);
-        console.log('DBG create', JSON.stringify(m.a), JSON.stringify(b), JSON.stringify(g));
         if (g) onCreate(m.tool, g);
         return;
       }
@@ -463,13 +460,24 @@ export function EditorStage(props: EditorStageProps) {
     }
   };
 
+  // The Stage gets stable handlers that call the latest closures through a ref, so a
+  // gesture never runs with the tool or selection of an earlier render.
+  const onDouble = () => {
+    if (tool === 'polygon') finishPolygon();
+  };
+  const latest = useRef({ onPointerDown, onPointerMove, endGesture, onDouble });
+  latest.current = { onPointerDown, onPointerMove, endGesture, onDouble };
+  const stableDouble = useCallback(() => latest.current.onDouble(), []);
+  const stableDown = useCallback((e: Konva.KonvaEventObject<PointerEvent>) => latest.current.onPointerDown(e), []);
+  const stableMove = useCallback(() => latest.current.onPointerMove(), []);
+  const stableUp = useCallback(() => latest.current.endGesture(), []);
   useEffect(() => {
     const up = () => {
-      if (mode.current.kind !== 'idle') endGesture();
+      if (mode.current.kind !== 'idle') latest.current.endGesture();
     };
     window.addEventListener('pointerup', up);
     return () => window.removeEventListener('pointerup', up);
-  });
+  }, []);
 
   const onWheel = (e: Konva.KonvaEventObject<WheelEvent>) => {
     e.evt.preventDefault();
@@ -685,12 +693,10 @@ export function EditorStage(props: EditorStageProps) {
       ref={stageRef}
       width={width}
       height={height}
-      onPointerDown={onPointerDown}
-      onPointerMove={onPointerMove}
-      onPointerUp={endGesture}
-      onDblClick={() => {
-        if (tool === 'polygon') finishPolygon();
-      }}
+      onPointerDown={stableDown}
+      onPointerMove={stableMove}
+      onPointerUp={stableUp}
+      onDblClick={stableDouble}
       onWheel={onWheel}
       onTouchMove={onTouchMove}
       onTouchEnd={() => {

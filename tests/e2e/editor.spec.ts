@@ -13,7 +13,7 @@ import { EditorPage } from './editor-page';
 
 test.describe('section editor', () => {
   test('creates a section from each starting section, drawn and ready to solve', async ({ page }) => {
-    test.setTimeout(240_000);
+    test.setTimeout(900_000);
     const workspaceId = await signInAs(page, 'editor');
     const ws = new WorkspacePage(page);
     const editor = new EditorPage(page);
@@ -78,9 +78,9 @@ test.describe('section editor', () => {
     // Save a new revision, reload, and find the same drawing.
     await editor.save.click();
     await expect(page.getByTestId('save-status')).toHaveText('Saved as a new revision');
-    await expect(section.revision).toContainText('2');
     await page.reload();
     await editor.expectReady();
+    await expect(section.revision).toContainText('2');
     await expect.poll(async () => (await editor.shape('trace')).width).toBeCloseTo(2, 9);
     await expect(page.getByTestId('draft-offer')).toHaveCount(0);
     await editor.tab('variables');
@@ -156,5 +156,29 @@ test.describe('section editor', () => {
     await editor.dragWorld({ x: cx, y: cy }, { x: cx + 5, y: cy + 5 });
     expect(await editor.shapes()).toEqual(before);
     await expect(page.getByTestId('prop-' + (s.type === 'circle' || s.type === 'ring' ? 'cx' : s.type === 'strip' ? 'x1' : 'x'))).toHaveAttribute('readonly', '');
+  });
+
+  test('screenshots at 1440 and 1024 px (looked at by people, not compared)', async ({ page }) => {
+    const workspaceId = await signInAs(page, 'editor');
+    const ws = new WorkspacePage(page);
+    await ws.goto(workspaceId);
+    const name = unique('Editor look');
+    await ws.createSection(name, 'coplanar-grounded');
+    await new SectionPage(page).expectLoaded(name);
+    const editor = new EditorPage(page);
+    await editor.expectReady();
+    await editor.selectFromList('centre');
+    for (const width of [1440, 1024]) {
+      await page.setViewportSize({ width, height: width === 1440 ? 900 : 768 });
+      await page.getByTestId('fit').click();
+      await page.waitForTimeout(300);
+      await page.screenshot({ path: `screenshots/editor-${width}.png` });
+    }
+    await editor.tab('materials');
+    await page.getByTestId('open-library').click();
+    await page.screenshot({ path: 'screenshots/editor-1024-materials.png' });
+    await page.getByTestId('help').click();
+    await expect(page.getByTestId('help-overlay')).toBeVisible();
+    await page.screenshot({ path: 'screenshots/editor-1024-help.png' });
   });
 });
