@@ -387,18 +387,45 @@ function updateMatvecDot(lv: MgLevel, z: Float64Array, beta: number, p: Float64A
     else for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk] + beta * p[kk];
   };
   update(0);
-  let d = 0;
+  // two partial sums break the dependency chain of the reduction
+  let d0 = 0, d1 = 0;
   for (let j = 0; j < ny; j++) {
     if (j + 1 < ny) update(j + 1);
     const r = off + j * nx;
-    for (let kk = r; kk < r + nx; kk++) {
+    const end = r + nx;
+    let kk = r;
+    for (; kk + 1 < end; kk += 2) {
+      const p0 = p[kk], p1 = p[kk + 1];
+      const v0 = c[kk] * p0 - w[kk] * p[kk - 1] - w[kk + 1] * p1 - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
+      const v1 = c[kk + 1] * p1 - w[kk + 1] * p0 - w[kk + 2] * p[kk + 2] - s[kk + 1] * p[kk + 1 - nx] - s[kk + 1 + nx] * p[kk + 1 + nx];
+      out[kk] = v0;
+      out[kk + 1] = v1;
+      d0 += p0 * v0;
+      d1 += p1 * v1;
+    }
+    if (kk < end) {
       const pk = p[kk];
       const v = c[kk] * pk - w[kk] * p[kk - 1] - w[kk + 1] * p[kk + 1] - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
       out[kk] = v;
-      d += pk * v;
+      d0 += pk * v;
     }
   }
-  return d;
+  return d0 + d1;
+}
+
+/** Σ a_k b_k over the grid part [off, off + size) of two padded vectors (four partial sums). */
+function dotPadded(a: Float64Array, b: Float64Array, off: number, size: number): number {
+  let d0 = 0, d1 = 0, d2 = 0, d3 = 0;
+  const end = off + size;
+  let k = off;
+  for (; k + 3 < end; k += 4) {
+    d0 += a[k] * b[k];
+    d1 += a[k + 1] * b[k + 1];
+    d2 += a[k + 2] * b[k + 2];
+    d3 += a[k + 3] * b[k + 3];
+  }
+  for (; k < end; k++) d0 += a[k] * b[k];
+  return d0 + d1 + d2 + d3;
 }
 
 /**
@@ -480,8 +507,7 @@ export function solve(
   while (!converged && it < maxIterations) {
     if (isCancelled !== undefined && isCancelled()) throw new SolveCancelledError();
     applyPreconditioner(h);
-    let rzNew = 0;
-    for (let k = off; k < off + size; k++) rzNew += rp[k] * zp[k];
+    const rzNew = dotPadded(rp, zp, off, size);
     const beta = restart ? 0 : rzNew / rz;
     restart = false;
     rz = rzNew;
@@ -489,13 +515,25 @@ export function solve(
     const pAp = updateMatvecDot(lv0, zp, beta, pp, qp);
     if (!(pAp > 0)) break; // breakdown: the residual is zero to round-off or A is singular here
     const alpha = rz / pAp;
-    let rr = 0;
-    for (let k = off; k < off + size; k++) {
+    let rr = 0, rr1 = 0;
+    let k = off;
+    for (; k + 1 < off + size; k += 2) {
+      xp[k] += alpha * pp[k];
+      xp[k + 1] += alpha * pp[k + 1];
+      const v0 = rp[k] - alpha * qp[k];
+      const v1 = rp[k + 1] - alpha * qp[k + 1];
+      rp[k] = v0;
+      rp[k + 1] = v1;
+      rr += v0 * v0;
+      rr1 += v1 * v1;
+    }
+    for (; k < off + size; k++) {
       xp[k] += alpha * pp[k];
       const v = rp[k] - alpha * qp[k];
       rp[k] = v;
       rr += v * v;
     }
+    rr += rr1;
     it++;
     rel = Math.sqrt(rr) / scale;
     if (rel <= tolerance) {

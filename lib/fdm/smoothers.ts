@@ -75,8 +75,49 @@ export function factorLines(lv: SweepLevel): void {
 export function sweepRows(lv: SweepLevel, parity: number, zeroGuess: boolean): void {
   const { ny } = lv;
   let j = parity;
+  if (lv.sw === null) for (; j + 6 < ny; j += 8) sweepRowQuad5(lv, j, zeroGuess);
   for (; j + 2 < ny; j += 4) sweepRowPair(lv, j, j + 2, zeroGuess);
   if (j < ny) sweepRowPair(lv, j, -1, zeroGuess);
+}
+
+/** Line solves of the 5-point rows j, j+2, j+4, j+6 in one loop (four independent recurrences). Writes lv.x. */
+function sweepRowQuad5(lv: SweepLevel, j: number, zeroGuess: boolean): void {
+  const { nx, off, w, s, xInv: inv, xU: u, x, b } = lv;
+  const r = off + j * nx;
+  const d = 2 * nx, d2 = 4 * nx, d3 = 6 * nx;
+  let g0 = 0, g1 = 0, g2 = 0, g3 = 0;
+  if (zeroGuess) {
+    for (let k0 = r; k0 < r + nx; k0++) {
+      const k1 = k0 + d, k2 = k0 + d2, k3 = k0 + d3;
+      g0 = (b[k0] + w[k0] * g0) * inv[k0];
+      g1 = (b[k1] + w[k1] * g1) * inv[k1];
+      g2 = (b[k2] + w[k2] * g2) * inv[k2];
+      g3 = (b[k3] + w[k3] * g3) * inv[k3];
+      x[k0] = g0;
+      x[k1] = g1;
+      x[k2] = g2;
+      x[k3] = g3;
+    }
+  } else {
+    for (let k0 = r; k0 < r + nx; k0++) {
+      const k1 = k0 + d, k2 = k0 + d2, k3 = k0 + d3;
+      g0 = (b[k0] + s[k0] * x[k0 - nx] + s[k0 + nx] * x[k0 + nx] + w[k0] * g0) * inv[k0];
+      g1 = (b[k1] + s[k1] * x[k1 - nx] + s[k1 + nx] * x[k1 + nx] + w[k1] * g1) * inv[k1];
+      g2 = (b[k2] + s[k2] * x[k2 - nx] + s[k2 + nx] * x[k2 + nx] + w[k2] * g2) * inv[k2];
+      g3 = (b[k3] + s[k3] * x[k3 - nx] + s[k3 + nx] * x[k3 + nx] + w[k3] * g3) * inv[k3];
+      x[k0] = g0;
+      x[k1] = g1;
+      x[k2] = g2;
+      x[k3] = g3;
+    }
+  }
+  for (let k0 = r + nx - 2; k0 >= r; k0--) {
+    const k1 = k0 + d, k2 = k0 + d2, k3 = k0 + d3;
+    x[k0] += u[k0] * x[k0 + 1];
+    x[k1] += u[k1] * x[k1 + 1];
+    x[k2] += u[k2] * x[k2 + 1];
+    x[k3] += u[k3] * x[k3 + 1];
+  }
 }
 
 /** Line solves of rows j1 and j2 (j2 = −1: only j1); the rows must not be neighbours. Writes lv.x. */
