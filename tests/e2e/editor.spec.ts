@@ -121,7 +121,7 @@ test.describe('section editor', () => {
     // Draw a rectangle on net "p" across both traces (traces at y 4 … 5.4 mil, x -8 … 8).
     await page.getByTestId('new-kind').selectOption('net:p');
     await page.getByTestId('tool-rect').click();
-    await editor.dragWorld({ x: -9, y: 4.4 }, { x: 9, y: 5 });
+    await editor.dragWorld({ x: -9, y: 4.2 }, { x: 9, y: 5.3 }); // snaps to the traces' bottom (4) and top (5.4)
     await expect.poll(async () => (await editor.shapes()).length).toBe(4);
     await expect(editor.gate).toHaveText('solving blocked');
     await expect(editor.state).toHaveAttribute('data-can-solve', 'no');

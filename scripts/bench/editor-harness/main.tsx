@@ -6,6 +6,7 @@ import { createRoot } from 'react-dom/client';
 import '../../../app/globals.css';
 import { SectionEditor } from '../../../components/canvas/section-editor';
 import type { Section } from '../../../lib/section/schema';
+import { isTemplateId, templateSection } from '../../../lib/section/templates';
 
 function manyShapes(n: number): Section {
   const shapes: Section['shapes'] = [];
@@ -37,6 +38,9 @@ function manyShapes(n: number): Section {
   };
 }
 
-const count = Number(new URLSearchParams(location.search).get('shapes') ?? 200);
-createRoot(document.getElementById('root')!).render(<SectionEditor initialSection={manyShapes(count)} className="h-[880px]" />);
+const params = new URLSearchParams(location.search);
+const count = Number(params.get('shapes') ?? 200);
+const template = params.get('template') ?? '';
+const initial = isTemplateId(template) ? templateSection(template) : manyShapes(count);
+createRoot(document.getElementById('root')!).render(<SectionEditor initialSection={initial} className="h-[880px]" />);
 (window as unknown as { __harnessReady: boolean }).__harnessReady = true;
