@@ -12,6 +12,8 @@
  *   line solves, robust for stretched cells in either direction (Trottenberg, Oosterlee &
  *   Schüller 2001, ch. 5). The post-smoother runs the same line steps in reverse order, so the
  *   V-cycle is a symmetric positive definite preconditioner. See ./smoothers.
+ * - Stretched meshes (graded far fields): the coarse levels get two sweeps (see
+ *   HierarchyOptions.coarseSweeps); a W-cycle is available as an option.
  * - Fixed (Dirichlet) nodes are decoupled identity rows: they are set to rhs/c at the start
  *   and stay exact through the whole hierarchy (interpolation weights towards them are zero).
  *
@@ -32,7 +34,6 @@ import {
   type Stencil9,
   type Transfer,
 } from './multigrid-transfer';
-
 
 export interface HierarchyOptions {
   /** Largest number of grid levels (1 = no coarsening: exact banded solve of the whole grid). @default 40 */
@@ -87,7 +88,9 @@ export interface Hierarchy {
   /** transfers[l] connects levels[l] (fine) and levels[l+1] (coarse), full coarsening. */
   transfers: Transfer[];
   coarse: BandCholesky;
+  /** Alternating line sweeps before and after the coarse correction, per level. */
   sweepsPerLevel: Int32Array;
+  /** Coarse corrections per visit of a level: 1 (V-cycle) or 2 (W-cycle). */
   gammaPerLevel: Int32Array;
   /** Decoupled nodes (all couplings zero): x = rhs / c there. */
   fixed: Int32Array;
