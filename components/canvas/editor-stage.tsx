@@ -443,8 +443,11 @@ export function EditorStage(props: EditorStageProps) {
       case 'draw': {
         setPreview(null);
         if (!sp) return;
-        const b = snapPoint(toWorld(v, sp), m.targets, snapOpts()).point;
-        const g = geometryFromDrag(m.tool, m.a, b, 2 / v.scale);
+        const raw = toWorld(v, sp);
+        const b = snapPoint(raw, m.targets, snapOpts()).point;
+        // When both ends snap to the same line the shape would have no size: then the end
+        // point is taken as drawn.
+        const g = geometryFromDrag(m.tool, m.a, b, 2 / v.scale) ?? geometryFromDrag(m.tool, m.a, raw, 2 / v.scale);
         if (g) onCreate(m.tool, g);
         return;
       }
