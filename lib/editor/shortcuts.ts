@@ -56,19 +56,19 @@ export const SHORTCUTS: readonly Shortcut[] = [
   { action: 'duplicate', keys: ['Mod+D'], description: 'Duplicate the selection', group: 'Edit' },
   { action: 'selectAll', keys: ['Mod+A'], description: 'Select every shape', group: 'Edit' },
   { action: 'deselect', keys: ['Shift+Escape'], description: 'Clear the selection', group: 'Edit' },
-  { action: 'nudgeLeft', keys: ['ArrowLeft'], description: 'Move by one grid step', group: 'Arrange' },
-  { action: 'nudgeRight', keys: ['ArrowRight'], description: 'Move by one grid step', group: 'Arrange' },
-  { action: 'nudgeUp', keys: ['ArrowUp'], description: 'Move by one grid step', group: 'Arrange' },
-  { action: 'nudgeDown', keys: ['ArrowDown'], description: 'Move by one grid step', group: 'Arrange' },
-  { action: 'bigNudgeLeft', keys: ['Shift+ArrowLeft'], description: 'Move by ten grid steps', group: 'Arrange' },
-  { action: 'bigNudgeRight', keys: ['Shift+ArrowRight'], description: 'Move by ten grid steps', group: 'Arrange' },
-  { action: 'bigNudgeUp', keys: ['Shift+ArrowUp'], description: 'Move by ten grid steps', group: 'Arrange' },
-  { action: 'bigNudgeDown', keys: ['Shift+ArrowDown'], description: 'Move by ten grid steps', group: 'Arrange' },
+  { action: 'nudgeLeft', keys: ['ArrowLeft'], description: 'Move left by one grid step', group: 'Arrange' },
+  { action: 'nudgeRight', keys: ['ArrowRight'], description: 'Move right by one grid step', group: 'Arrange' },
+  { action: 'nudgeUp', keys: ['ArrowUp'], description: 'Move up by one grid step', group: 'Arrange' },
+  { action: 'nudgeDown', keys: ['ArrowDown'], description: 'Move down by one grid step', group: 'Arrange' },
+  { action: 'bigNudgeLeft', keys: ['Shift+ArrowLeft'], description: 'Move left by ten grid steps', group: 'Arrange' },
+  { action: 'bigNudgeRight', keys: ['Shift+ArrowRight'], description: 'Move right by ten grid steps', group: 'Arrange' },
+  { action: 'bigNudgeUp', keys: ['Shift+ArrowUp'], description: 'Move up by ten grid steps', group: 'Arrange' },
+  { action: 'bigNudgeDown', keys: ['Shift+ArrowDown'], description: 'Move down by ten grid steps', group: 'Arrange' },
   { action: 'forward', keys: [']'], description: 'Bring forward', group: 'Arrange' },
   { action: 'backward', keys: ['['], description: 'Send backward', group: 'Arrange' },
-  { action: 'front', keys: ['Shift+]', '}'], description: 'Bring to front', group: 'Arrange' },
-  { action: 'back', keys: ['Shift+[', '{'], description: 'Send to back', group: 'Arrange' },
-  { action: 'fit', keys: ['F', 'Shift+1'], description: 'Fit the section in view', group: 'View' },
+  { action: 'front', keys: ['}'], description: 'Bring to front', group: 'Arrange' },
+  { action: 'back', keys: ['{'], description: 'Send to back', group: 'Arrange' },
+  { action: 'fit', keys: ['F'], description: 'Fit the section in view', group: 'View' },
   { action: 'zoomIn', keys: ['+', '='], description: 'Zoom in', group: 'View' },
   { action: 'zoomOut', keys: ['-', '_'], description: 'Zoom out', group: 'View' },
   { action: 'toggleSnap', keys: ['N'], description: 'Snapping on or off (hold Alt while dragging to skip it once)', group: 'View' },
@@ -101,7 +101,6 @@ function comboOf(e: KeyLike): string {
 export function actionForKey(e: KeyLike): EditorAction | undefined {
   const combo = comboOf(e);
   for (const s of SHORTCUTS) if (s.keys.includes(combo)) return s.action;
-  // Shift with an arrow falls back to the plain arrow action only when not listed.
   return undefined;
 }
 
