@@ -509,7 +509,7 @@ export function SectionEditor(props: SectionEditorProps) {
             <select
               id="new-kind"
               data-testid="new-kind"
-              className="h-8 max-w-52 rounded-md border border-line-strong bg-surface px-1.5 text-sm"
+              className="h-8 w-36 rounded-md border border-line-strong bg-surface px-1.5 text-sm xl:w-52"
               title="What newly drawn shapes are"
               value={newKind === 'dielectric' && currentMaterial ? `mat:${currentMaterial}` : `net:${currentNet}`}
               onChange={(e) => {
