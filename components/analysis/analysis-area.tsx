@@ -109,6 +109,14 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
   const [busy, setBusy] = useState<null | 'analyse' | 'sweep' | 'fringing' | 'goal' | 'confirm' | 'report'>(null);
   const [progress, setProgress] = useState<PointProgress | null>(null);
   const [message, setMessage] = useState<string | null>(null);
+  // Progress and point callbacks travel on their own message channels and may arrive after
+  // the job has ended; only the live job's callbacks reach the state.
+  const jobRef = useRef(0);
+  const startJob = () => ++jobRef.current;
+  const live = (job: number) => job === jobRef.current;
+  const endJob = () => {
+    jobRef.current++;
+  };
 
   // ---- lines and losses
   const [freqGHz, setFreqGHz] = useState('1');
@@ -181,6 +189,7 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
   const title = section?.title || solvedSection?.title || 'Section';
 
   const stop = () => {
+    endJob();
     clientRef.current?.cancel();
     setBusy(null);
     setProgress(null);
@@ -225,22 +234,29 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     setBusy('sweep');
     setMessage(null);
     setProgress({ done: 0, total: values.length });
+    const job = startJob();
     try {
       await client().run((api) =>
         api.sweep(
           { section, target: target.target, values, settings: settings() },
           proxy((p: SweepPoint) => {
+            if (!live(job)) return;
             acc.push(p);
             setSweep({ label: target.label, unit, log: rangeKind === 'log', points: [...acc] });
           }),
-          proxy((p: PointProgress) => setProgress(p)),
+          proxy((p: PointProgress) => {
+            if (live(job)) setProgress(p);
+          }),
         ),
       );
     } catch (e) {
       setMessage(e instanceof Error ? e.message : String(e));
     } finally {
-      setBusy(null);
-      setProgress(null);
+      if (live(job)) {
+        endJob();
+        setBusy(null);
+        setProgress(null);
+      }
     }
   };
 
@@ -254,24 +270,31 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     setBusy('fringing');
     setMessage(null);
     setProgress({ done: 0, total: ratios.length });
+    const job = startJob();
     try {
       await client().run((api) =>
         api.fringing(
           { section: s, ratios, settings: settings() },
           proxy((p: SweepPoint) => {
+            if (!live(job)) return;
             const row = p.result ? fringingRow(p.result) : null;
             if (row) rows.push(row);
             else errors.push(`d/w = ${p.value}: ${p.error ?? 'no plate pair'}`);
             setFringing({ rows: [...rows], errors: [...errors] });
           }),
-          proxy((p: PointProgress) => setProgress(p)),
+          proxy((p: PointProgress) => {
+            if (live(job)) setProgress(p);
+          }),
         ),
       );
     } catch (e) {
       setMessage(e instanceof Error ? e.message : String(e));
     } finally {
-      setBusy(null);
-      setProgress(null);
+      if (live(job)) {
+        endJob();
+        setBusy(null);
+        setProgress(null);
+      }
     }
   };
 
@@ -289,11 +312,13 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     setGoalEvals([]);
     setMessage(null);
     const acc: GoalSeekEvaluation[] = [];
+    const job = startJob();
     try {
       const out = await client().run<GoalSeekOutcome>((api) =>
         api.goalSeek(
           { section, variable, lo: Number(goalLo), hi: Number(goalHi), metric: goalMetric, target: Number(goalTarget) * goalUnit.factor, settings: settings() },
           proxy((e: GoalSeekEvaluation) => {
+            if (!live(job)) return;
             acc.push(e);
             setGoalEvals([...acc]);
           }),
