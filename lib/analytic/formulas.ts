@@ -113,3 +113,16 @@ export function palmerFringingExcess(w: number, d: number): number {
 
 /** Elliptic K re-exported for tests. */
 export { ellipticK, ellipticRatio };
+
+/**
+ * Edge-coupled centred striplines, zero thickness, strips of width w with gap s between
+ * grounds b apart (Cohn 1955, IRE Trans. MTT 3:29; from memory, and checked against our
+ * converged numerics): k_e = tanh(πw/2b)·tanh(π(w+s)/2b), k_o = tanh(πw/2b)·coth(π(w+s)/2b),
+ * even/odd capacitance per line C = 4 ε0 εr K(k)/K(k′) (Z = (30π/√εr) K(k′)/K(k)).
+ * In Maxwell terms: C_even = C11 + C12, C_odd = C11 − C12.
+ */
+export function coupledStriplineCapacitances(w: number, s: number, b: number, epsR = 1): { even: number; odd: number } {
+  const t1 = Math.tanh((Math.PI * w) / (2 * b));
+  const t2 = Math.tanh((Math.PI * (w + s)) / (2 * b));
+  return { even: 4 * EPS0 * epsR * ellipticRatio(t1 * t2), odd: 4 * EPS0 * epsR * ellipticRatio(t1 / t2) };
+}
