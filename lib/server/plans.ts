@@ -58,3 +58,24 @@ export function assertSolveLimit(planId: string, stored: number): void {
     );
   }
 }
+
+/**
+ * Before storing a solve: 402 when the workspace's plan is full. A repeat of an existing
+ * solve (same revision and settings) is never refused: it stores nothing new.
+ */
+export async function enforceSolveLimit(workspaceId: string, revisionId: string, settingsHash: string): Promise<void> {
+  const { getDb } = await import('@/db/client');
+  const { solves, workspaces } = await import('@/db/schema');
+  const { and, eq, sql } = await import('drizzle-orm');
+  const db = await getDb();
+  const [ws] = await db.select({ plan: workspaces.plan }).from(workspaces).where(eq(workspaces.id, workspaceId)).limit(1);
+  if (!ws) return;
+  const [dup] = await db
+    .select({ id: solves.id })
+    .from(solves)
+    .where(and(eq(solves.workspaceId, workspaceId), eq(solves.revisionId, revisionId), eq(solves.settingsHash, settingsHash)))
+    .limit(1);
+  if (dup) return;
+  const [n] = await db.select({ n: sql<number>`count(*)::int` }).from(solves).where(eq(solves.workspaceId, workspaceId));
+  assertSolveLimit(ws.plan, Number(n?.n ?? 0));
+}

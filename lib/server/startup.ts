@@ -63,5 +63,15 @@ async function run() {
       );
     }
   }
+  // Issue 7: the bundled fake payment service (checkout, portal, signed webhooks).
+  try {
+    const { ensureFakePayments } = await import('./payments');
+    if (!process.env.STRIPE_SECRET_KEY) {
+      const fake = await ensureFakePayments();
+      console.log(`Edgefield: test payment service on ${fake.publicUrl} (no money moves)`);
+    }
+  } catch (e) {
+    console.error(`Edgefield: could not start the test payment service (${(e as Error).message}); set EDGEFIELD_PAYMENTS_PORT to a free port.`);
+  }
   console.log(demoSignInBanner(process.env.NEXTAUTH_URL));
 }

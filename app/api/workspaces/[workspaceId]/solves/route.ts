@@ -1,5 +1,6 @@
 import { insertSolve, listSolves } from '@/db/queries/solves';
 import { requireWorkspaceRole } from '@/lib/server/access';
+import { enforceSolveLimit } from '@/lib/server/plans';
 import { ApiError, apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx, readParams } from '@/lib/server/http';
 import { createSolveSchema, listSolvesQuerySchema, MAX_SOLVE_BODY_BYTES } from '@/lib/validations/solve';
 
@@ -31,6 +32,7 @@ export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
   const { workspaceId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const body = await parseJsonBody(req, createSolveSchema, { maxBytes: MAX_SOLVE_BODY_BYTES });
+  await enforceSolveLimit(workspaceId, body.revisionId, body.settingsHash); // issue 7: 402 when the plan is full
   const out = await insertSolve({
     workspaceId,
     sectionId: body.sectionId,
