@@ -111,3 +111,32 @@ test('the last owner cannot be demoted, with a clear message', async ({ page }) 
   await page.reload();
   await expect(owner).toHaveAttribute('data-role', 'owner');
 });
+
+test('plans: a forged webhook is refused; upgrading through the test checkout makes the workspace Team', async ({ page }) => {
+  test.slow();
+  const workspaceId = await signInAs(page, 'owner');
+  await page.goto(`/w/${workspaceId}/settings`);
+  const card = page.getByTestId('plan-card');
+  await expect(card).toHaveAttribute('data-plan', 'free');
+
+  // A webhook that claims the checkout completed, with a signature made with the wrong secret.
+  const payload = JSON.stringify({ id: 'evt_forged_e2e', object: 'event', type: 'checkout.session.completed', data: { object: { metadata: { workspaceId }, customer: 'cus_forged' } } });
+  const t = Math.floor(Date.now() / 1000);
+  const bad = await page.request.post('/api/billing/webhook', {
+    data: payload,
+    headers: { 'content-type': 'application/json', 'stripe-signature': `t=${t},v1=${'0'.repeat(64)}` },
+  });
+  expect(bad.status()).toBe(400);
+  await page.reload();
+  await expect(card).toHaveAttribute('data-plan', 'free');
+
+  // Upgrade: the test checkout page of the bundled payment service, then back to settings.
+  await page.getByTestId('plan-upgrade').click();
+  await expect(page.getByTestId('fake-pay')).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByText('Team plan')).toBeVisible();
+  await page.getByTestId('fake-pay').click();
+  await expect(page).toHaveURL(new RegExp(`/w/${workspaceId}/settings\\?billing=success`), { timeout: 30_000 });
+  await expect(card).toHaveAttribute('data-plan', 'team');
+  await expect(page.getByTestId('invoice')).toHaveCount(1);
+  await expect(page.getByTestId('plan-usage')).toContainText('of 10000');
+});

@@ -6,6 +6,7 @@ import { requireWorkspaceMember } from '@/lib/server/access';
 import { WorkspaceNameForm } from '../_components/workspace-name-form';
 import { MembersPanel } from '@/components/teamwork/members-panel';
 import { PublicLinksSetting } from '@/components/teamwork/public-links-setting';
+import { PlanCard } from '@/components/teamwork/plan-card';
 import { listPendingInvitations } from '@/db/queries/invitations';
 import { planOf } from '@/lib/server/plans';
 
@@ -13,8 +14,15 @@ export const metadata: Metadata = { title: 'Workspace settings' };
 
 
 /** Workspace settings: the name (owners edit it), the members and invitations (owners manage them). */
-export default async function SettingsPage({ params }: { params: Promise<{ workspaceId: string }> }) {
+export default async function SettingsPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ workspaceId: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { workspaceId } = await params;
+  const billing = (await searchParams).billing;
   const { user, role, workspace } = await requireWorkspaceMember(workspaceId);
   const members = await listMembers(workspaceId);
   const invitations = role === 'owner' ? await listPendingInvitations(workspaceId) : null;
@@ -28,6 +36,9 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
           <WorkspaceNameForm workspaceId={workspaceId} name={workspace.name} canEdit={role === 'owner'} />
         </div>
       </Card>
+      {role === 'owner' ? (
+        <PlanCard workspaceId={workspaceId} notice={billing === 'success' || billing === 'cancelled' ? billing : undefined} />
+      ) : null}
       <PublicLinksSetting workspaceId={workspaceId} allow={workspace.allowPublicLinks} canEdit={role === 'owner'} />
       <MembersPanel
         workspaceId={workspaceId}
