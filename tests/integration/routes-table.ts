@@ -334,8 +334,9 @@ export const ROUTES: RouteRow[] = [
   // Plans and payment (issue 7, TEAMWORK). The fake payment service starts on first use in demo mode.
   { file: `${WS}/billing`, method: 'GET', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), ok: [200] },
   { file: `${WS}/billing/checkout`, method: 'POST', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), ok: [200] },
-  // Before any upgrade there is no billing account: 409 proves the owner got past the check.
-  { file: `${WS}/billing/portal`, method: 'POST', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), ok: [409] },
+  // 200 once the checkout row above made a billing account, 409 when run alone (no account yet):
+  // either proves the owner got past the access check.
+  { file: `${WS}/billing/portal`, method: 'POST', access: 'owner', params: (w) => ({ workspaceId: w.wsA }), ok: [200, 409] },
   // Public (the payment service calls it); without a valid signature: 400, nothing changes.
   { file: 'billing/webhook', method: 'POST', access: 'public', body: () => ({ id: 'evt_x', type: 'checkout.session.completed' }), ok: [400] },
   // Auth and demo routes: not workspace data.
