@@ -5,7 +5,7 @@
  * grade, frequency, temperature and moisture, and dielectric strength is not a material
  * constant at all (it depends on thickness, electrodes and voltage ramp; test methods
  * IEC 60243-1, ASTM D149). The ranges and sources below follow the project's reference
- * notes (/work/shared/REFERENCES.md §7), which cite:
+ * notes (../shared/REFERENCES.md §7), which cite:
  *  - CRC Handbook of Chemistry and Physics (permittivity and dielectric-strength tables)
  *  - A. R. von Hippel, Dielectric Materials and Applications (1954)
  *  - S. M. Sze & K. K. Ng, Physics of Semiconductor Devices, 3rd ed. (2007)

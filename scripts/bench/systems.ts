@@ -2,7 +2,7 @@
  * Test systems for the solver benchmarks and tests: a finite-volume 5-point assembly of
  * div(ε grad φ) = 0 on a rectilinear grid (ε constant per cell, Dirichlet nodes moved to the
  * right-hand side), a microstrip-like uniform-grid system and a port of the performance
- * anchor's system (/work/shared/bench/amg_anchor.py, build(n)).
+ * anchor's system (../shared/bench/amg_anchor.py, build(n)).
  */
 import type { Operator5 } from '../../lib/fdm/types';
 

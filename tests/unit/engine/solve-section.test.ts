@@ -9,8 +9,9 @@ import { EPS0, MU0, C_LIGHT } from '@/lib/engine/constants';
 import { SolveCancelledError } from '@/lib/fdm/types';
 import { sectionSchema, type Section } from '@/lib/section/schema';
 import { resolved } from '../section/helpers';
+import { SHARED_SAMPLES } from '../../support/shared';
 
-const samples = '/work/shared/samples';
+const samples = SHARED_SAMPLES;
 const sample = (name: string): Section => sectionSchema.parse(JSON.parse(readFileSync(path.join(samples, name), 'utf8')));
 const expected = JSON.parse(readFileSync(path.join(samples, 'expected.json'), 'utf8'));
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
@@ -156,7 +157,7 @@ describe('solveSection', () => {
     expect(p.solvedPerM).toBe(result.capacitance.maxwell[0]![0]);
     expect(p.solvedOverIdeal).toBeCloseTo(result.capacitance.maxwell[0]![0]! / p.idealPerM, 12);
     // Palmer (1937, Trans. AIEE 56:363): C'/ε = w/d + (1/π)(1 + ln(2πw/d)) for the pair; it is
-    // a few per cent low at w/d = 4 (/work/shared/REFERENCES.md §6: about 4 % at 2, 1.2 % at 5,
+    // a few per cent low at w/d = 4 (../shared/REFERENCES.md §6: about 4 % at 2, 1.2 % at 5,
     // "from one check of ours"), so the solved value must lie above it by less than 4 %.
     const wd = 4;
     const palmer = wd + (1 / Math.PI) * (1 + Math.log(2 * Math.PI * wd));

@@ -4,6 +4,7 @@ import path from 'node:path';
 import { checkSection } from '@/lib/section/check';
 import { parseSectionFile } from '@/lib/section/parse';
 import { resolved, twoNets } from './helpers';
+import { SHARED_SAMPLES } from '../../support/shared';
 
 // The geometric predicates are checked against configurations whose answer follows from
 // elementary plane geometry (common practice, no published source).
@@ -305,7 +306,7 @@ describe('checkSection warnings', () => {
 });
 
 describe('shared samples and documentation examples', () => {
-  const dir = '/work/shared/samples';
+  const dir = SHARED_SAMPLES;
   const files = readdirSync(dir).filter((f) => f.endsWith('.section.json'));
   it('finds the samples', () => expect(files.length).toBeGreaterThanOrEqual(3));
   for (const f of files) {

@@ -6,6 +6,7 @@ import { sectionSchemaJson } from '@/lib/section/json-schema';
 import { Ajv2020 } from 'ajv/dist/2020';
 import { solveSection } from '@/lib/engine/solve-section';
 import type { SectionResult } from '@/lib/engine/types';
+import { SHARED_SAMPLES } from '../../support/shared';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 
@@ -88,7 +89,7 @@ describe('docs/section.schema.json as a JSON Schema (checked with Ajv, draft 202
   const validate = ajv.compile(schema);
   const md = readFileSync(path.join(root, 'docs/section-format.md'), 'utf8');
   const blocks = [...md.matchAll(/```json\n([\s\S]*?)```/g)].map((m) => m[1]!);
-  const samples = ['coax', 'plates', 'twin-wires'].map((n) => readFileSync(`/work/shared/samples/${n}.section.json`, 'utf8'));
+  const samples = ['coax', 'plates', 'twin-wires'].map((n) => readFileSync(`${SHARED_SAMPLES}/${n}.section.json`, 'utf8'));
 
   it('accepts every documentation example and shared sample', () => {
     for (const text of [...blocks, ...samples]) {

@@ -5,6 +5,7 @@ import { convertSection, convertSectionDetailed, convertResolvedSection, formatL
 import { parseSectionFile } from '@/lib/section/parse';
 import { locateJsonError } from '@/lib/section/json-locate';
 import { section } from './helpers';
+import { SHARED_SAMPLES } from '../../support/shared';
 
 const nets = [
   { name: 'sig', role: 'signal' },
@@ -227,12 +228,12 @@ describe('parseSectionFile', () => {
   });
 
   it('a valid file with a warning', () => {
-    const r = parseSectionFile(readFileSync('/work/shared/samples/coax.section.json', 'utf8').replace('"nets": [', '"nets": [{"name": "spare", "role": "signal"},'));
+    const r = parseSectionFile(readFileSync(`${SHARED_SAMPLES}/coax.section.json`, 'utf8').replace('"nets": [', '"nets": [{"name": "spare", "role": "signal"},'));
     expect(r.ok).toBe(true);
     if (r.ok) expect(r.warnings.map((w) => w.code)).toEqual(['empty-net']);
   });
 
   it('a byte order mark is accepted', () => {
-    expect(parseSectionFile('\ufeff' + readFileSync('/work/shared/samples/plates.section.json', 'utf8')).ok).toBe(true);
+    expect(parseSectionFile('\ufeff' + readFileSync(`${SHARED_SAMPLES}/plates.section.json`, 'utf8')).ok).toBe(true);
   });
 });
