@@ -6,6 +6,7 @@
  * internals (the details go to the server log).
  */
 import { ZodError, type ZodType, type z } from 'zod';
+import { CROSS_SITE_MESSAGE, isCrossSiteRequest } from './csrf';
 
 export interface ApiErrorBody {
   error: { code: string; message: string; field?: string };
@@ -52,10 +53,19 @@ export function zodErrorResponse(err: ZodError, prefix?: string): Response {
 
 type Handler<C> = (req: Request, ctx: C) => Promise<Response> | Response;
 
-/** Wrap a route handler so every failure becomes the JSON error shape. */
-export function apiHandler<C = unknown>(fn: Handler<C>): (req: Request, ctx: C) => Promise<Response> {
+/**
+ * Wrap a route handler so every failure becomes the JSON error shape. State-changing requests
+ * from another site are refused first (403 `cross_site`, see lib/server/csrf.ts); pass
+ * `{ csrf: false }` only for endpoints called by other services with their own verification
+ * (the signed payment webhook).
+ */
+export function apiHandler<C = unknown>(
+  fn: Handler<C>,
+  opts: { csrf?: boolean } = {},
+): (req: Request, ctx: C) => Promise<Response> {
   return async (req, ctx) => {
     try {
+      if (opts.csrf !== false && isCrossSiteRequest(req)) throw new ApiError(403, 'cross_site', CROSS_SITE_MESSAGE);
       return await fn(req, ctx);
     } catch (e) {
       return errorToResponse(e);

@@ -10,4 +10,4 @@ export const dynamic = 'force-dynamic';
 export const POST = apiHandler(async (req: Request) => {
   const payload = await readBodyText(req, 256 * 1024);
   return json(await handleWebhook(payload, req.headers.get('stripe-signature')));
-});
+}, { csrf: false }); // server-to-server; the signature is the check
