@@ -139,7 +139,8 @@ describe('every state-changing route', () => {
 
   it.each(rows.map((r) => [`${r.method} /api/${r.file}`, r] as const))('%s refuses another site, changes nothing', async (_n, row) => {
     const before = await snapshotTables(handle);
-    for (const headers of [{ origin: 'https://evil.example' }, { 'sec-fetch-site': 'cross-site' }, { origin: 'null' }]) {
+    const hostile: Record<string, string>[] = [{ origin: 'https://evil.example' }, { 'sec-fetch-site': 'cross-site' }, { origin: 'null' }];
+    for (const headers of hostile) {
       const r = await call(row, headers);
       expect(r.status).toBe(403);
       expect(r.json?.error?.code).toBe('cross_site');

@@ -10,6 +10,7 @@ import { getUserByEmail, insertUser } from '@/db/queries/users';
 import { insertWorkspace } from '@/db/queries/workspaces';
 import { signUpSchema } from '@/lib/validations/auth';
 import { hashPassword } from '../auth-options';
+import { RATE_LIMIT_MESSAGE, takeForAction } from '../rate-limit';
 
 export type SignUpState =
   | { status: 'idle' }
@@ -17,6 +18,8 @@ export type SignUpState =
   | { status: 'error'; message: string; fieldErrors: Partial<Record<'name' | 'email' | 'password', string>> };
 
 export async function signUp(_prev: SignUpState, formData: FormData): Promise<SignUpState> {
+  // Rate limit per client address (lib/server/rate-limit.ts); a server action answers with the form state.
+  if (!(await takeForAction('sign-up:ip')).ok) return { status: 'error', message: RATE_LIMIT_MESSAGE, fieldErrors: {} };
   const parsed = signUpSchema.safeParse({
     name: formData.get('name') ?? '',
     email: formData.get('email') ?? '',

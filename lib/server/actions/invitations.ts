@@ -12,6 +12,7 @@ import { getUserByEmail, insertUser } from '@/db/queries/users';
 import { inviteSignUpSchema } from '@/lib/validations/members';
 import { hashPassword } from '../auth-options';
 import { hashToken, isTokenShape } from '../invitations';
+import { RATE_LIMIT_MESSAGE, takeForAction } from '../rate-limit';
 import { getSessionUser } from '../session';
 
 export type AcceptState =
@@ -41,6 +42,7 @@ export async function acceptInvitation(token: string): Promise<AcceptState> {
 
 export async function signUpWithInvitation(token: string, input: { name: string; password: string }): Promise<AcceptState> {
   if (!isTokenShape(token)) return INVALID;
+  if (!(await takeForAction('sign-up:ip')).ok) return { status: 'error', code: 'rate_limited', message: RATE_LIMIT_MESSAGE };
   const parsed = inviteSignUpSchema.safeParse(input);
   if (!parsed.success) {
     const fieldErrors: Partial<Record<'name' | 'password', string>> = {};
