@@ -14,11 +14,11 @@ import { DrawingPreview } from './drawing-preview';
 import { guessMapping } from './guess-mapping';
 
 const UNITS = [
-  ['mm', 'millimetres (mm)'],
-  ['um', 'micrometres (µm)'],
-  ['mil', 'mils (0.001 in)'],
-  ['in', 'inches'],
-  ['m', 'metres'],
+  ['mm', 'mm'],
+  ['um', 'µm'],
+  ['mil', 'mil (0.001 in)'],
+  ['in', 'in'],
+  ['m', 'm'],
 ] as const;
 type UnitId = (typeof UNITS)[number][0];
 
@@ -233,10 +233,10 @@ function LayerTable({
           <th scope="col" className="w-16 py-1.5 pr-3 font-medium">
             Shapes
           </th>
-          <th scope="col" className="w-44 py-1.5 pr-3 font-medium">
+          <th scope="col" className="w-56 py-1.5 pr-3 font-medium">
             Is
           </th>
-          <th scope="col" className="w-64 py-1.5 font-medium">
+          <th scope="col" className="w-60 py-1.5 font-medium">
             Net or material
           </th>
         </tr>

@@ -79,13 +79,15 @@ export function ShareLinksPanel({
             <label htmlFor={`${id}-exp`} className="text-sm text-ink-soft">
               Expires after
             </label>
-            <Select id={`${id}-exp`} value={days} onChange={(e) => setDays(e.target.value)} className="h-8 w-32 text-sm" data-testid="share-expiry">
+            <div className="w-32">
+            <Select id={`${id}-exp`} value={days} onChange={(e) => setDays(e.target.value)} className="h-8 text-sm" data-testid="share-expiry">
               <option value="1">1 day</option>
               <option value="7">7 days</option>
               <option value="30">30 days</option>
               <option value="90">90 days</option>
               <option value="never">never</option>
             </Select>
+            </div>
             <Button size="sm" variant="secondary" pending={create.isPending} onClick={() => create.mutate()} data-testid="share-create">
               <Link2 className="size-4" aria-hidden />
               Make a link

@@ -160,7 +160,7 @@ export default async function HistoryPage({
         </table>
       </Card>
 
-      {aRev && bRev && aSec && bSec && diff ? (
+      {revisions.length >= 2 && aRev && bRev && aSec && bSec && diff ? (
         <Card aria-labelledby="cmp-title" data-testid="compare">
           <CardHeader
             id="cmp-title"
