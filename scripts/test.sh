@@ -25,5 +25,8 @@ echo "== production build for the end-to-end tests"
 export NEXT_DIST_DIR="${NEXT_DIST_DIR:-.next-e2e}"
 npx next build > /tmp/edgefield-e2e-build.log 2>&1 || { tail -n 60 /tmp/edgefield-e2e-build.log; exit 1; }
 
+echo "== no secrets or server-only code in the client bundles"
+npx tsx scripts/check-client-bundle.ts "$NEXT_DIST_DIR"
+
 echo "== end-to-end (Playwright, Chromium)"
 npx playwright test
