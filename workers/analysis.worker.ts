@@ -29,6 +29,20 @@ const solver = (settings: AnalysisSettings, progress?: (fraction: number) => voi
   }).result;
 };
 
+/**
+ * Calls back to the page travel on their own message channels: keep their promises and wait
+ * for all of them before a job returns, so every point reaches the page before the result.
+ */
+function tracker() {
+  const pending: Promise<unknown>[] = [];
+  return {
+    call(p: unknown) {
+      if (p && typeof (p as Promise<unknown>).then === 'function') pending.push(p as Promise<unknown>);
+    },
+    flush: () => Promise.allSettled(pending),
+  };
+}
+
 const api: AnalysisWorkerApi = {
   async ping() {
     return 'pong';
@@ -43,35 +57,42 @@ const api: AnalysisWorkerApi = {
   async sweep(req, onPoint, onProgress) {
     const total = req.values.length;
     let done = 0;
-    const report = (fraction?: number) => void onProgress({ done, total, ...(fraction !== undefined ? { fraction } : {}) } satisfies PointProgress);
+    const t = tracker();
+    const report = (fraction?: number) => t.call(onProgress({ done, total, ...(fraction !== undefined ? { fraction } : {}) } satisfies PointProgress));
     const out = await runSweep(req.section, req.target, req.values, solver(req.settings, report), {
       onPoint: (p, i, n) => {
         done = i + 1;
-        void onPoint(p, i, n);
+        t.call(onPoint(p, i, n));
         report();
       },
     });
+    await t.flush();
     return { points: out.points.length };
   },
   async fringing(req, onPoint, onProgress) {
     const total = req.ratios.length;
     let done = 0;
-    const solve = solver(req.settings, (fraction) => void onProgress({ done, total, fraction }));
+    const t = tracker();
+    const solve = solver(req.settings, (fraction) => t.call(onProgress({ done, total, fraction })));
     for (let i = 0; i < total; i++) {
       const ratio = req.ratios[i]!;
       try {
-        void onPoint({ value: ratio, result: solve(withGapToWidth(req.section, ratio)) }, i, total);
+        t.call(onPoint({ value: ratio, result: solve(withGapToWidth(req.section, ratio)) }, i, total));
       } catch (e) {
-        void onPoint({ value: ratio, error: e instanceof Error ? e.message : String(e) }, i, total);
+        t.call(onPoint({ value: ratio, error: e instanceof Error ? e.message : String(e) }, i, total));
       }
       done = i + 1;
-      void onProgress({ done, total });
+      t.call(onProgress({ done, total }));
     }
+    await t.flush();
     return { points: total };
   },
   async goalSeek(req, onEvaluation) {
     const { settings, ...rest } = req;
-    return goalSeek(rest, solver(settings), (e, n) => void onEvaluation(e, n));
+    const t = tracker();
+    const out = await goalSeek(rest, solver(settings), (e, n) => t.call(onEvaluation(e, n)));
+    await t.flush();
+    return out;
   },
 };
 
