@@ -341,3 +341,49 @@ export function interpolateAddEven(t: Transfer, xc: Float64Array, xf: Float64Arr
     }
   }
 }
+
+/**
+ * Fused residual and restriction after a red–black pre-smoothing sweep on a 5-point level
+ * whose last half-sweep updated the black nodes ((i + j) odd): their residual is zero, so
+ * bc = Pᵀ r needs r only at the red nodes, i.e. the coarse nodes (even, even), weight 1, and
+ * the cell centres (odd, odd), weights pcSW/SE/NW/NE. Writes the centre residuals into `r`
+ * (padded fine vector; other entries are left as they are and meet zero weights) and bc
+ * inside the coarse grid. Same result as a full residual and `restrict`, up to round-off.
+ */
+export function residualRestrictRed(lv: SweepLevel, t: Transfer, r: Float64Array, bc: Float64Array): void {
+  const { nx, ny, off: fo, c, w, s, x, b } = lv;
+  const { ncx, ncy, off, pcSW, pcSE, pcNW, pcNE } = t;
+  for (let j = 1; j < ny; j += 2) {
+    const r0 = fo + j * nx;
+    for (let kk = r0 + 1; kk < r0 + nx; kk += 2) {
+      r[kk] = b[kk] - c[kk] * x[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
+    }
+  }
+  for (let J = 0; J < ncy; J++) {
+    let K = J * ncx + off;
+    let f = 2 * J * nx + fo;
+    for (let I = 0; I < ncx; I++, K++, f += 2) {
+      const rv = b[f] - c[f] * x[f] + w[f] * x[f - 1] + w[f + 1] * x[f + 1] + s[f] * x[f - nx] + s[f + nx] * x[f + nx];
+      bc[K] = rv + pcSW[K] * r[f + nx + 1] + pcSE[K - 1] * r[f + nx - 1] + pcNW[K - ncx] * r[f - nx + 1] + pcNE[K - ncx - 1] * r[f - nx - 1];
+    }
+  }
+}
+
+/**
+ * Interpolation xf += P xc at the red nodes only ((i + j) even: coarse nodes and cell
+ * centres), for a cycle whose first post-smoothing half-sweep recomputes every black node from
+ * its red neighbours (5-point level). Writes xf at the red nodes.
+ */
+export function interpolateAddRed(t: Transfer, xc: Float64Array, xf: Float64Array): void {
+  const { nx, ny, ncx, off, fineOff, pcSW, pcSE, pcNW, pcNE } = t;
+  for (let j = 0; j < ny; j++) {
+    let K = (j >> 1) * ncx + off;
+    const fr = j * nx + fineOff;
+    const end = fr + nx;
+    if ((j & 1) === 0) {
+      for (let f = fr; f < end; f += 2, K++) xf[f] += xc[K];
+    } else {
+      for (let f = fr + 1; f < end; f += 2, K++) xf[f] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+    }
+  }
+}

@@ -247,3 +247,45 @@ export function residualFull(lv: SweepLevel, r: Float64Array): void {
   const { nx, ny, off } = lv;
   for (let kk = off; kk < off + nx * ny; kk++) r[kk] = residualAt(lv, kk);
 }
+
+/**
+ * One red–black point Gauss–Seidel sweep on a 5-point level (sw = null), red = (i + j) even:
+ * `redFirst` true updates every red node then every black node, false the reverse (the adjoint,
+ * so a red-first pre-sweep and a black-first post-sweep keep the cycle symmetric). The second
+ * colour of row j − 1 is updated right after the first colour of row j, in one pass over memory;
+ * on a 5-point stencil nodes of one colour couple only to the other colour, so this equals the
+ * two full half-sweeps. With `zeroGuess` (red first only) x is taken as zero on entry: red
+ * nodes get b/c and the old content of x is never read. `cInv` holds 1/c (padded).
+ * Point smoothing suits levels whose cells are nearly square; stretched cells need the line
+ * sweeps above.
+ */
+export function sweepRedBlack(lv: SweepLevel, cInv: Float64Array, redFirst: boolean, zeroGuess: boolean): void {
+  const { nx, ny, off, w, s, x, b } = lv;
+  const first = redFirst ? 0 : 1;
+  const relax = (j: number, colour: number, zero: boolean) => {
+    const r = off + j * nx;
+    const end = r + nx;
+    if (zero) {
+      for (let kk = r + ((colour + j) & 1); kk < end; kk += 2) x[kk] = b[kk] * cInv[kk];
+      return;
+    }
+    for (let kk = r + ((colour + j) & 1); kk < end; kk += 2) {
+      x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+    }
+  };
+  const zero = zeroGuess && redFirst;
+  relax(0, first, zero);
+  for (let j = 1; j < ny; j++) {
+    relax(j, first, zero);
+    relax(j - 1, 1 - first, false);
+  }
+  relax(ny - 1, 1 - first, false);
+}
+
+/** 1/c on a level (0 where c is not positive), padded like the level. */
+export function inverseDiagonal(lv: SweepLevel): Float64Array {
+  const { nx, ny, off, c } = lv;
+  const out = new Float64Array(c.length);
+  for (let kk = off; kk < off + nx * ny; kk++) out[kk] = c[kk] > 0 ? 1 / c[kk] : 0;
+  return out;
+}
