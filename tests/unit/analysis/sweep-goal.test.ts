@@ -18,7 +18,7 @@ const microstrip = (w: number): Section =>
       { id: 'trace', type: 'rect', x: '-w/2', y: 'h', width: 'w', height: 't', conductor: 'trace' },
     ],
     boundary: { bottom: { type: 'ground', at: 0 } },
-  }) as Section;
+  }) as unknown as Section;
 
 const plates: Section = {
   format: 'edgefield.section/1',
