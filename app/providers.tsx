@@ -4,6 +4,7 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { SessionProvider } from 'next-auth/react';
 import { useState, type ReactNode } from 'react';
 import { ApiClientError } from '@/components/ui/api';
+import '@/lib/client/zod-no-eval';
 
 /** Client-side providers: TanStack Query (one client per browser tab) and the next-auth session. */
 export function Providers({ children }: { children: ReactNode }) {

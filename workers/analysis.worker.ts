@@ -4,6 +4,7 @@
  * series of solveSection calls (lib/engine) off the main thread. A thin adapter over
  * lib/analysis; points stream back through Comlink.proxy callbacks.
  */
+import '@/lib/client/zod-no-eval'; // first: no eval probe under the CSP
 import * as Comlink from 'comlink';
 import { solveSection } from '@/lib/engine/solve-section';
 import { runSweep } from '@/lib/analysis/sweep';

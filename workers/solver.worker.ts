@@ -5,6 +5,7 @@
  * sent); the field arrays are transferred, not copied. Cancellation: a SharedArrayBuffer flag
  * when the page is cross-origin isolated, otherwise the page terminates this worker.
  */
+import '@/lib/client/zod-no-eval'; // first: no eval probe under the CSP
 import * as Comlink from 'comlink';
 import { solveSection } from '@/lib/engine/solve-section';
 import { SolveCancelledError } from '@/lib/fdm/types';
