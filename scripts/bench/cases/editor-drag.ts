@@ -5,56 +5,12 @@
  * never asserted). Frames are counted with requestAnimationFrame inside the page, so a main
  * thread busy with React renders or canvas redraws shows up as dropped frames.
  */
-import http from 'node:http';
-import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { buildHarness, launchChromium, repoRoot, serveStatic } from '../browser-harness';
 
 export const name = 'editor-drag-200-shapes';
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
-const harnessDir = path.join(root, 'scripts/bench/editor-harness');
-const outDir = path.join(root, 'bench-out/editor-harness');
-
-async function buildHarness(): Promise<void> {
-  const { build } = await import('vite');
-  await build({
-    root: harnessDir,
-    base: './',
-    logLevel: 'error',
-    configFile: false,
-    resolve: {
-      alias: [
-        { find: 'next/dynamic', replacement: path.join(harnessDir, 'next-dynamic-shim.tsx') },
-        { find: /^@\//, replacement: `${root}/` },
-      ],
-    },
-    css: { postcss: root },
-    define: { 'process.env.NODE_ENV': '"production"' },
-    build: { outDir, emptyOutDir: true, minify: true, sourcemap: false },
-  });
-}
-
-function serve(dir: string): Promise<{ url: string; close: () => Promise<void> }> {
-  const types: Record<string, string> = { '.html': 'text/html', '.js': 'text/javascript', '.css': 'text/css', '.woff2': 'font/woff2', '.svg': 'image/svg+xml' };
-  const server = http.createServer((req, res) => {
-    const p = path.join(dir, decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname));
-    const file = p.endsWith('/') ? path.join(p, 'index.html') : p;
-    if (!file.startsWith(dir) || !fs.existsSync(file)) {
-      res.writeHead(404).end();
-      return;
-    }
-    res.writeHead(200, { 'content-type': types[path.extname(file)] ?? 'application/octet-stream' });
-    fs.createReadStream(file).pipe(res);
-  });
-  return new Promise((resolve) => {
-    server.listen(0, '127.0.0.1', () => {
-      const a = server.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      resolve({ url: `http://127.0.0.1:${port}/`, close: () => new Promise((r) => server.close(() => r())) });
-    });
-  });
-}
 
 export interface EditorDragResult {
   fps: number;
@@ -73,13 +29,9 @@ export interface EditorDragResult {
 }
 
 export async function run(): Promise<EditorDragResult> {
-  await buildHarness();
-  const srv = await serve(outDir);
-  const { chromium } = await import('@playwright/test');
-  const browser = await chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--no-first-run', '--disable-background-networking'],
-  });
+  const outDir = await buildHarness({ dir: 'scripts/bench/editor-harness', css: true, aliases: [{ find: 'next/dynamic', replacement: path.join(repoRoot, 'scripts/bench/editor-harness/next-dynamic-shim.tsx') }] });
+  const srv = await serveStatic(outDir);
+  const browser = await launchChromium();
   try {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
     const shapes = 200;
