@@ -8,13 +8,10 @@ import type { SectionResult } from '@/lib/engine/types';
 import { sectionSchema } from '@/lib/section/schema';
 import { getSessionUser } from '@/lib/server/session';
 import { openShareLink } from '@/lib/server/share';
+import { MaxwellTable, formatPf } from '@/components/results/maxwell-table';
 
 export const metadata: Metadata = { title: 'Shared from Edgefield', robots: { index: false, follow: false } };
 export const dynamic = 'force-dynamic';
-
-function pf(v: number) {
-  return Number.isFinite(v) ? (v * 1e12).toPrecision(4) : '—';
-}
 
 /** A read-only view of a shared section or solve (no editing, no comments). */
 export default async function SharedPage({ params }: { params: Promise<{ token: string }> }) {
@@ -83,35 +80,10 @@ function SharedBody({ open }: { open: Extract<Awaited<ReturnType<typeof openShar
         <Card data-testid="shared-result">
           <CardHeader title="Maxwell capacitance matrix" description="Per unit length, pF/m, reference: ground nets and grounded boundaries." />
           <div className="overflow-x-auto p-4">
-            <table className="num text-sm">
-              <thead>
-                <tr>
-                  <th />
-                  {result.nets.map((n) => (
-                    <th key={n} scope="col" className="px-3 text-left text-xs font-medium text-ink-muted">
-                      {n}
-                    </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody>
-                {result.capacitance.maxwell.map((row, i) => (
-                  <tr key={i}>
-                    <th scope="row" className="pr-3 text-left text-xs font-medium text-ink-muted">
-                      {result.nets[i]}
-                    </th>
-                    {row.map((v, j) => (
-                      <td key={j} className="px-3 text-right">
-                        {pf(v)}
-                      </td>
-                    ))}
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <MaxwellTable nets={result.nets} maxwell={result.capacitance.maxwell} />
             {result.line ? (
               <p className="mt-3 text-sm text-ink-soft">
-                Z0 {result.line.z0Ohm.toPrecision(4)} Ω · εeff {result.line.epsEff.toPrecision(4)} · C′ {pf(result.line.capacitancePerM)} pF/m
+                Z0 {result.line.z0Ohm.toPrecision(4)} Ω · εeff {result.line.epsEff.toPrecision(4)} · C′ {formatPf(result.line.capacitancePerM)} pF/m
               </p>
             ) : null}
             <p className="mt-2 text-xs text-ink-muted">

@@ -18,6 +18,7 @@ import { parseMeasuredCsv, type MeasuredData } from '@/lib/import/measured-csv';
 import { sectionSchema, type Section } from '@/lib/section/schema';
 import { requireWorkspaceMember } from '@/lib/server/access';
 import { diffSections, type ShapeChange } from '@/lib/teamwork/section-diff';
+import { MaxwellTable } from '@/components/results/maxwell-table';
 
 export const metadata: Metadata = { title: 'Section history' };
 
@@ -29,10 +30,6 @@ const CHANGE_TONE: Record<ShapeChange, 'success' | 'danger' | 'warning' | 'neutr
   changed: 'warning',
   unchanged: 'neutral',
 };
-
-function pf(v: number | undefined) {
-  return v === undefined || !Number.isFinite(v) ? '—' : (v * 1e12).toPrecision(4);
-}
 
 /**
  * A section's history: every revision with author and time, two revisions compared side by
@@ -224,32 +221,7 @@ export default async function HistoryPage({
                   {result ? (
                     <div data-testid={`result-${side}`}>
                       <p className="mb-1 text-xs font-medium text-ink-muted">Maxwell capacitance, pF/m (solve of {solve!.createdAt.toISOString().slice(0, 10)})</p>
-                      <table className="num text-sm">
-                        <thead>
-                          <tr>
-                            <th />
-                            {result.nets.map((n) => (
-                              <th key={n} scope="col" className="px-2 text-left text-xs font-medium text-ink-muted">
-                                {n}
-                              </th>
-                            ))}
-                          </tr>
-                        </thead>
-                        <tbody>
-                          {result.capacitance.maxwell.map((row, i) => (
-                            <tr key={i}>
-                              <th scope="row" className="pr-2 text-left text-xs font-medium text-ink-muted">
-                                {result.nets[i]}
-                              </th>
-                              {row.map((v, j) => (
-                                <td key={j} className="px-2 text-right">
-                                  {pf(v)}
-                                </td>
-                              ))}
-                            </tr>
-                          ))}
-                        </tbody>
-                      </table>
+                      <MaxwellTable nets={result.nets} maxwell={result.capacitance.maxwell} compact />
                       {result.line ? (
                         <p className="mt-1 text-xs text-ink-muted">
                           Z0 {result.line.z0Ohm.toPrecision(4)} Ω · εeff {result.line.epsEff.toPrecision(4)}
