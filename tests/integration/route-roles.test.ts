@@ -1,8 +1,10 @@
 /**
- * Role checks for EVERY API route handler, generated from tests/integration/routes-table.ts.
- * The exported GET/POST/... functions are called directly with a Request; the session is
- * mocked (lib/server/session.ts) so each call runs as a chosen user. The database is a
- * migrated in-memory PGlite (or DATABASE_URL's server).
+ * The authorisation matrix of EVERY API route handler, generated from
+ * tests/integration/routes-table.ts: one test per row × actor (signed out, viewer, editor,
+ * owner, member of another workspace, share-link holder signed out and signed in). The
+ * exported GET/POST/... functions are called directly with a Request; the session is mocked
+ * (lib/server/session.ts) so each call runs as a chosen user. The database is a migrated
+ * in-memory PGlite clone (or DATABASE_URL's server).
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -27,14 +29,15 @@ vi.mock('@/lib/server/mail', async (importOriginal) => ({
 import { setDbForTesting, type DbHandle } from '@/db/client';
 import { setSolveField } from '@/db/queries/solves';
 import { createTestDb } from './helpers/db';
-import { buildWorld, type Who, type World } from './helpers/fixtures';
-import { ROUTES, UNCHECKED_ROUTES, type Method, type Role, type RouteRow } from './routes-table';
+import { buildWorld, type World } from './helpers/fixtures';
+import { actorUser, addShareHolders, setPublicLinks, type ShareHolders } from './helpers/share-holders';
+import { ACTORS, ACTOR_LABEL, OK, ROUTES, UNCHECKED_ROUTES, expectedFor, type Actor, type Expected, type Method, type RouteRow } from './routes-table';
 
 const API_DIR = path.resolve('app/api');
-const RANK: Record<Role, number> = { viewer: 1, editor: 2, owner: 3 };
 
 let handle: DbHandle;
 let w: World;
+let holders: ShareHolders;
 const wasDemo = process.env.EDGEFIELD_DEMO;
 
 beforeAll(async () => {
@@ -42,6 +45,7 @@ beforeAll(async () => {
   handle = await createTestDb();
   setDbForTesting(handle);
   w = await buildWorld(handle.db);
+  holders = await addShareHolders(handle.db, w);
   await setSolveField(w.wsA, w.solveA, null, new Uint8Array([69, 70, 76, 68]));
 });
 afterAll(async () => {
@@ -56,8 +60,9 @@ function routeExists(row: RouteRow) {
 }
 
 let counter = 0;
-async function call(row: RouteRow, who: Who | null, params?: Record<string, string>) {
-  auth.user = who ? w.users[who] : null;
+type CallUser = { id: string; email: string; name: string } | null;
+async function call(row: RouteRow, who: CallUser, params?: Record<string, string>, shareToken?: string) {
+  auth.user = who;
   const mod = (await import(/* @vite-ignore */ path.join(API_DIR, row.file, 'route.ts'))) as Record<
     string,
     (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>
@@ -65,16 +70,25 @@ async function call(row: RouteRow, who: Who | null, params?: Record<string, stri
   const fn = mod[row.method];
   if (!fn) throw new Error(`${row.file} exports no ${row.method}`);
   const n = ++counter;
-  const init: RequestInit = { method: row.method };
+  const headers: Record<string, string> = {};
+  const init: RequestInit = { method: row.method, headers };
   if (row.rawBody) {
     const { contentType, data } = row.rawBody(w);
     init.body = data as unknown as BodyInit;
-    init.headers = { 'content-type': contentType };
+    headers['content-type'] = contentType;
   } else if (row.body) {
     init.body = JSON.stringify(row.body(w, n));
-    init.headers = { 'content-type': 'application/json' };
+    headers['content-type'] = 'application/json';
   }
-  const req = new Request(`http://localhost/api/${row.file}${row.query ?? ''}`, init);
+  let query = row.query ?? '';
+  if (shareToken) {
+    const t = encodeURIComponent(shareToken);
+    query += `${query ? '&' : '?'}token=${t}&share=${t}`;
+    headers.authorization = `Bearer ${shareToken}`;
+    headers['x-share-token'] = shareToken;
+    headers.cookie = `edgefield-share=${t}; share=${t}`;
+  }
+  const req = new Request(`http://localhost/api/${row.file}${query}`, init);
   const res = await fn(req, { params: Promise.resolve(params ?? row.params?.(w) ?? {}) });
   const text = await res.text();
   let json: unknown = null;
@@ -83,7 +97,7 @@ async function call(row: RouteRow, who: Who | null, params?: Record<string, stri
   } catch {
     /* binary body */
   }
-  return { status: res.status, json: json as { error?: { code: string; message: string } } | null };
+  return { status: res.status, text, json: json as { error?: { code: string; message: string } } | null };
 }
 
 function expectErrorShape(json: { error?: { code: string; message: string } } | null) {
@@ -94,66 +108,93 @@ function expectErrorShape(json: { error?: { code: string; message: string } } | 
 
 const rows = ROUTES.filter(routeExists);
 
-describe.each(rows.map((r) => [`${r.method} /api/${r.file}`, r] as const))('%s', (_name, row) => {
-  if (row.access === 'public') {
-    it('answers signed out', async () => {
-      const r = await call(row, null);
-      expect(row.ok).toContain(r.status);
-    });
-    return;
+/** Who makes the call for each actor, and whether they hold a share token. */
+function caller(actor: Actor) {
+  return { user: actorUser(actor, w, holders), share: actor === 'shareHolder' || actor === 'shareHolderSignedIn' };
+}
+
+/** Workspace A's ids, names and member addresses: none may reach someone outside A. */
+function leakMarkers(): string[] {
+  return [w.wsA, w.sectionA, w.revisionA, w.solveA, w.fileA, 'Workspace A', 'Section in A', w.users.owner.email, w.users.editor.email, w.users.viewer.email];
+}
+
+async function callAs(row: RouteRow, actor: Actor) {
+  const { user, share } = caller(actor);
+  if (!share) return call(row, user);
+  // The holder of a link to A's solve (routes about solves) or to A's section (the rest),
+  // while A allows public links, presenting the token every way a client could.
+  const token = row.file.includes('[solveId]') ? holders.solveToken : holders.sectionToken;
+  await setPublicLinks(handle.db, w.wsA, true);
+  try {
+    return await call(row, user, undefined, token);
+  } finally {
+    await setPublicLinks(handle.db, w.wsA, false);
   }
+}
 
-  it('signed out → 401', async () => {
-    const r = await call(row, null);
-    expect(r.status).toBe(401);
-    expectErrorShape(r.json);
-  });
+const MEMBERS_OF_A: ReadonlySet<Actor> = new Set(['viewer', 'editor', 'owner']);
 
-  if (row.access === 'user') {
-    it('any signed-in user → success', async () => {
-      for (const who of ['owner', 'viewer', 'outsider'] as const) {
-        const r = await call(row, who);
-        expect(row.ok, `${who}: ${JSON.stringify(r.json)}`).toContain(r.status);
+describe.each(rows.map((r) => [`${r.method} /api/${r.file}`, r] as const))('%s', (name, row) => {
+  for (const actor of ACTORS) {
+    const e = expectedFor(row.expect, actor);
+    it(`${name} as ${ACTOR_LABEL[actor]} → ${e === OK ? row.ok.join(' or ') : e}`, async () => {
+      const r = await callAs(row, actor);
+      if (e === OK) {
+        expect(row.ok, JSON.stringify(r.json)).toContain(r.status);
+        if (!MEMBERS_OF_A.has(actor)) {
+          for (const m of leakMarkers()) expect(r.text.includes(m), `${actor} received "${m}"`).toBe(false);
+        }
+      } else {
+        expect(r.status, JSON.stringify(r.json)).toBe(e);
+        expectErrorShape(r.json);
       }
     });
-    return;
   }
-  const needed = row.access;
 
-  it('member of another workspace → 404', async () => {
-    const r = await call(row, 'outsider');
-    expect(r.status).toBe(404);
-    expectErrorShape(r.json);
-  });
+  if (row.access === 'public' || row.access === 'user') return;
 
   if (row.foreignParams) {
-    it('another workspace’s ids, from an owner of this one → 404', async () => {
-      const r = await call(row, 'owner', row.foreignParams!(w));
+    it(`${name} as owner of A with another workspace’s ids → 404`, async () => {
+      const r = await call(row, w.users.owner, row.foreignParams!(w));
       expect(r.status).toBe(404);
       expectErrorShape(r.json);
     });
   }
 
-  it('malformed ids → 404', async () => {
+  it(`${name} as owner with malformed ids → 404`, async () => {
     const p = Object.fromEntries(Object.keys(row.params!(w)).map((k) => [k, "x'; drop table users;--"]));
-    const r = await call(row, 'owner', p);
+    const r = await call(row, w.users.owner, p);
     expect(r.status).toBe(404);
   });
+});
 
-  for (const role of ['viewer', 'editor', 'owner'] as const) {
-    if (RANK[role] < RANK[needed]) {
-      it(`${role} → 403`, async () => {
-        const r = await call(row, role);
-        expect(r.status).toBe(403);
-        expectErrorShape(r.json);
-      });
-    } else {
-      it(`${role} → allowed`, async () => {
-        const r = await call(row, role);
-        expect(row.ok, JSON.stringify(r.json)).toContain(r.status);
-      });
-    }
-  }
+describe('the matrix is consistent', () => {
+  const refusal = (e: Expected) => e !== OK;
+  it.each(ROUTES.map((r) => [`${r.method} /api/${r.file}`, r] as const))('%s', (_n, row) => {
+    const col = (a: Actor) => expectedFor(row.expect, a);
+    expect(row.expect).toHaveLength(ACTORS.length);
+    // Signed out: allowed (public) or 401; never 403/404, which would say more than "sign in".
+    expect([OK, 401]).toContain(col('signedOut'));
+    // Roles are ordered: what a viewer may do an editor may, what an editor may an owner may.
+    if (col('viewer') === OK) expect(col('editor')).toBe(OK);
+    if (col('editor') === OK) expect(col('owner')).toBe(OK);
+    // A member below the needed role learns it (403); existence is never hidden from members.
+    for (const r of ['viewer', 'editor', 'owner'] as const) if (refusal(col(r))) expect(col(r)).toBe(403);
+    // Someone outside A gets 404 for A's data (existence never leaks), or the route is theirs too.
+    if (row.access !== 'public' && row.access !== 'user') expect(col('otherWorkspace')).toBe(404);
+    // A share token adds nothing on the API: the holder gets what the same person without it gets.
+    expect(col('shareHolder')).toBe(col('signedOut'));
+    expect(col('shareHolderSignedIn')).toBe(col('otherWorkspace'));
+  });
+
+  it('every row names an existing route file', () => {
+    for (const r of ROUTES) expect(routeExists(r), `app/api/${r.file}/route.ts does not exist`).toBe(true);
+  });
+
+  it('no (route, method) is listed twice', () => {
+    const keys = ROUTES.map((r) => `${r.method} ${r.file}`);
+    expect(new Set(keys).size).toBe(keys.length);
+  });
 });
 
 describe('the route table covers every route handler', () => {
