@@ -38,6 +38,8 @@ export function migrationsFolder(): string {
 type GlobalWithDb = typeof globalThis & {
   __edgefieldDb?: Promise<DbHandle>;
   __edgefieldDbSignals?: boolean;
+  /** Set once a shutdown closes the database: nothing may open it again in this process. */
+  __edgefieldDbClosing?: boolean;
 };
 const g = globalThis as GlobalWithDb;
 
@@ -48,6 +50,7 @@ export async function getDb(): Promise<Db> {
 
 export function getDbHandle(): Promise<DbHandle> {
   if (!g.__edgefieldDb) {
+    if (g.__edgefieldDbClosing) return Promise.reject(new Error('Edgefield is shutting down; the database is closed.'));
     const p = openFromEnv();
     g.__edgefieldDb = p;
     // A failed open must not stay cached: the next call tries again.
@@ -155,16 +158,57 @@ export async function openPostgres(url: string, opts: { migrate?: boolean } = {}
   };
 }
 
+/** How long a shutdown waits for the HTTP server to finish the requests in flight. */
+const SHUTDOWN_GRACE_MS = Number(process.env.EDGEFIELD_SHUTDOWN_GRACE_MS || 10_000);
+
+/**
+ * Clean shutdown on SIGTERM / SIGINT: stop accepting, let the requests in flight finish, close
+ * the database (PGlite writes a shutdown checkpoint), release the data-folder lock, exit 0.
+ *
+ * `next start` handles the same signals: it closes its HTTP server (no new connections, the
+ * requests in flight run to their end) and then calls `process.exit(143)` (130 for SIGINT).
+ * While shutting down we take that call as "drained": the database is closed first and the
+ * process then exits with 0. Without such a listener (scripts, NEXT_MANUAL_SIG_HANDLE) the
+ * database closes at once. Either way, after SHUTDOWN_GRACE_MS (idle keep-alive connections,
+ * a stuck request) the database is closed regardless; PGlite's close waits for the
+ * transaction in progress, and a request that reaches the database after it is closed fails
+ * with an error instead of reopening it.
+ */
 function installSignalHandlers() {
   if (g.__edgefieldDbSignals) return;
   g.__edgefieldDbSignals = true;
   for (const sig of ['SIGTERM', 'SIGINT'] as const) {
-    process.once(sig, () => {
-      const timer = setTimeout(() => process.exit(0), 5000);
-      timer.unref();
-      closeDb()
-        .catch((e) => console.error('Edgefield: error while closing the database', e))
-        .finally(() => process.exit(0));
-    });
+    process.once(sig, () => shutdownOnSignal(sig));
+  }
+}
+
+function shutdownOnSignal(sig: 'SIGTERM' | 'SIGINT') {
+  const realExit = process.exit.bind(process);
+  let finishing = false;
+  const finish = async () => {
+    if (finishing) return;
+    finishing = true;
+    clearTimeout(grace);
+    let code = 0;
+    try {
+      g.__edgefieldDbClosing = true;
+      await closeDb();
+      console.log('Edgefield: database closed');
+    } catch (e) {
+      code = 1;
+      console.error('Edgefield: error while closing the database', e);
+    }
+    realExit(code);
+  };
+  // Another listener for this signal (Next's server) drains the HTTP server and then exits.
+  const otherListeners = process.listenerCount(sig) > 0;
+  console.log(
+    `Edgefield: ${sig} received; ${otherListeners ? 'finishing the requests in flight, then ' : ''}closing the database`,
+  );
+  const grace = setTimeout(() => void finish(), otherListeners ? SHUTDOWN_GRACE_MS : 0);
+  if (otherListeners) {
+    process.exit = ((_code?: number) => {
+      void finish();
+    }) as typeof process.exit;
   }
 }

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # Every test of Edgefield: type checks, unit/integration/reference tests (vitest),
-# a production build and the end-to-end tests (Playwright in Debian's Chromium).
+# a production build, the end-to-end tests (Playwright in Debian's Chromium) and the
+# kill-and-restart durability test against the same build.
 # Usage: npm test          (after npm ci; the README's test command is `npm ci && npm test`)
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -30,3 +31,6 @@ npx tsx scripts/check-client-bundle.ts "$NEXT_DIST_DIR"
 
 echo "== end-to-end (Playwright, Chromium)"
 npx playwright test
+
+echo "== durability: SIGKILL in the middle of writes, 20 rounds; clean SIGTERM shutdown (production build)"
+npx vitest run -c vitest.durability.config.mts
