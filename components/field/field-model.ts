@@ -12,6 +12,7 @@ import { cellField, peakField, superpose, type CellField, type PeakField } from 
 import { isoLines, type IsoLine } from '@/lib/field/contour';
 import { fieldLines } from '@/lib/field/field-lines';
 import { quantile } from '@/lib/field/colormap';
+import { smoothField, type SmoothField } from '@/lib/field/smooth';
 import type { WorldRect } from '@/lib/field/raster';
 
 export interface Drive {
@@ -30,6 +31,8 @@ export interface FieldModel {
   /** 1 where all four corners of a cell are conductor nodes (no field inside metal). */
   conductorCell: Uint8Array;
   peak: PeakField | null;
+  /** E recovered at the cell corners, for the smooth |E| picture and the probe (worked out on first use). */
+  smooth: SmoothField;
   /** |E| at the 99th percentile of the cells near the structure (top of the linear colour range). */
   eClip: number;
   /** Smallest positive |E| worth showing on a log scale. */
@@ -143,6 +146,7 @@ export function buildFieldModel(
   };
   let iso: IsoLine[] | null = null;
   let lines: Float64Array[] | null = null;
+  let smooth: SmoothField | null = null;
   return {
     grid,
     unit,
@@ -152,6 +156,9 @@ export function buildFieldModel(
     cells,
     conductorCell,
     peak,
+    get smooth() {
+      return (smooth ??= smoothField(grid, cells, nn, conductorCell));
+    },
     get eClip() {
       return range().clip;
     },

@@ -8,7 +8,8 @@ import { METRES_PER_UNIT } from '@/lib/section/schema';
 import { makeGrid } from '@/lib/field/grid';
 import { cellField } from '@/lib/field/gradient';
 import { colorLut, quantile } from '@/lib/field/colormap';
-import { rasterCells, rasterNodes, type WorldRect } from '@/lib/field/raster';
+import { rasterNodes, type WorldRect } from '@/lib/field/raster';
+import { conductorCells, rasterSmoothMagnitude, smoothField } from '@/lib/field/smooth';
 import { structureRect } from './field-model';
 
 export type OverlayKind = 'potential' | 'field';
@@ -39,21 +40,16 @@ export function paintOverlay(result: SectionResult, fields: SectionFields, secti
   const rw = rect.x1 - rect.x0;
   const rh = rect.y1 - rect.y0;
   const [pw, ph] = rw >= rh ? [maxPx, Math.max(2, Math.round((maxPx * rh) / rw))] : [Math.max(2, Math.round((maxPx * rw) / rh)), maxPx];
-  const nx = grid.nx;
-  const cx = nx - 1;
-  const nn = fields.nodeNet;
-  const metal = (c: number) => {
-    const i = c % cx;
-    const j = (c - i) / cx;
-    const k = j * nx + i;
-    return nn[k]! !== -1 && nn[k + 1]! !== -1 && nn[k + nx]! !== -1 && nn[k + nx + 1]! !== -1;
-  };
+  const conductorCell = conductorCells(grid, fields.nodeNet);
+  const metal = (c: number) => conductorCell[c] === 1;
   let img;
   if (kind === 'field') {
     const E = cellField(grid, phi);
     let top = quantile(E.mag, 0.99, (c) => !metal(c));
     if (!(top > 0)) top = 1;
-    img = rasterCells(grid, E.mag, rect, pw, ph, { kind: 'linear', min: 0, max: top }, colorLut('viridis'), metal);
+    // smooth: E recovered at the cell corners and interpolated per pixel
+    const smooth = smoothField(grid, E, fields.nodeNet, conductorCell);
+    img = rasterSmoothMagnitude(grid, smooth, rect, pw, ph, { kind: 'linear', min: 0, max: top }, colorLut('viridis'));
   } else {
     let lo = Infinity;
     let hi = -Infinity;

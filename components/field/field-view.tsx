@@ -13,7 +13,8 @@ import type { SectionFields, SectionResult } from '@/lib/engine/types';
 import type { ResolvedSection, ResolvedShape, Section } from '@/lib/section/schema';
 import { resolveSection } from '@/lib/section/resolve';
 import { colorLut, type ColorScale } from '@/lib/field/colormap';
-import { rasterCells, rasterNodes, type RasterImage, type WorldRect } from '@/lib/field/raster';
+import { rasterNodes, type RasterImage, type WorldRect } from '@/lib/field/raster';
+import { rasterSmoothMagnitude, sampleSmooth } from '@/lib/field/smooth';
 import { samplePoint } from '@/lib/field/gradient';
 import { sampleCut, type CutSamples } from '@/lib/field/cut-line';
 import { pointAlong, polylineLength } from '@/lib/field/contour';
@@ -142,7 +143,8 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
     if (typeof document === 'undefined') return null;
     const paint = (rect: WorldRect, px: number) => {
       const [w, h] = rasterSize(rect, px);
-      if (mode === 'field') return rasterCells(model.grid, model.cells.mag, rect, w, h, eScale, colorLut('viridis'), mask);
+      // |E| from the field recovered at the cell corners, interpolated per pixel (smooth on graded meshes)
+      if (mode === 'field') return rasterSmoothMagnitude(model.grid, model.smooth, rect, w, h, eScale, colorLut('viridis'));
       return rasterNodes(model.grid, model.phi, rect, w, h, potScale, colorLut('cividis'), mask, mode === 'potential' ? 255 : 90);
     };
     if (mode === 'mesh') return null;
@@ -184,7 +186,7 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
     const sx = (xm: number) => view.ox + (xm / u) * view.scale;
     const sy = (ym: number) => view.oy - (ym / u) * view.scale;
     if (images) {
-      ctx.imageSmoothingEnabled = mode !== 'field';
+      ctx.imageSmoothingEnabled = true;
       const f = images.fine.rect;
       const fx0 = sx(f.x0);
       const fy0 = sy(f.y1);
@@ -324,12 +326,14 @@ export function FieldView({ result, fields, section, initialMode = 'potential', 
     const ly = locate(model.grid.ys, ym);
     const cell = lx && ly ? ly.k * (model.grid.nx - 1) + lx.k : -1;
     const inMetal = cell >= 0 && model.conductorCell[cell] === 1;
-    return { ...p, epsR: cell >= 0 ? fields.cellEpsR[cell] : undefined, inMetal };
+    // E as the |E| picture shows it (recovered at the corners, interpolated); φ bilinear as painted
+    const e = inMetal ? null : sampleSmooth(model.grid, model.smooth, xm, ym);
+    return { phi: p.phi, ex: e?.ex ?? 0, ey: e?.ey ?? 0, mag: e?.mag ?? 0, epsR: cell >= 0 ? fields.cellEpsR[cell] : undefined, inMetal };
   }, [probe, model, fields]);
 
   const cutSamples: CutSamples | null = useMemo(() => {
-    if (!cut || drag.current?.kind === 'cut') return cut && Math.hypot(cut.x1 - cut.x0, cut.y1 - cut.y0) > 0 ? sampleCut(model.grid, model.phi, cut.x0 * model.unit, cut.y0 * model.unit, cut.x1 * model.unit, cut.y1 * model.unit, 200) : null;
-    return sampleCut(model.grid, model.phi, cut.x0 * model.unit, cut.y0 * model.unit, cut.x1 * model.unit, cut.y1 * model.unit, 400);
+    if (!cut || drag.current?.kind === 'cut') return cut && Math.hypot(cut.x1 - cut.x0, cut.y1 - cut.y0) > 0 ? sampleCut(model.grid, model.phi, cut.x0 * model.unit, cut.y0 * model.unit, cut.x1 * model.unit, cut.y1 * model.unit, 200, model.smooth) : null;
+    return sampleCut(model.grid, model.phi, cut.x0 * model.unit, cut.y0 * model.unit, cut.x1 * model.unit, cut.y1 * model.unit, 400, model.smooth);
   }, [cut, model]);
 
   const absV = Math.abs(volts);

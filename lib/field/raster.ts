@@ -35,46 +35,6 @@ function pixelIntervals(a: Float64Array, lo: number, hi: number, count: number, 
   return { k, t };
 }
 
-/**
- * Cell-constant field (length (nx−1)*(ny−1)) → pixels. Cells where `mask(cell)` is true
- * (for example inside conductors) are left transparent.
- */
-export function rasterCells(
-  grid: FieldGrid,
-  cellValues: Float64Array,
-  rect: WorldRect,
-  width: number,
-  height: number,
-  scale: ColorScale,
-  lut: Uint8Array,
-  mask?: (cell: number) => boolean,
-  alpha = 255,
-): RasterImage {
-  const cx = grid.nx - 1;
-  const col = pixelIntervals(grid.xs, rect.x0, rect.x1, width, false);
-  const row = pixelIntervals(grid.ys, rect.y0, rect.y1, height, true);
-  const data = new Uint8ClampedArray(width * height * 4);
-  for (let py = 0; py < height; py++) {
-    const j = row.k[py]!;
-    if (j < 0) continue;
-    for (let px = 0; px < width; px++) {
-      const i = col.k[px]!;
-      if (i < 0) continue;
-      const cell = j * cx + i;
-      if (mask && mask(cell)) continue;
-      const t = scaleValue(scale, cellValues[cell]!);
-      if (Number.isNaN(t)) continue;
-      const q = Math.round(t * 255) * 3;
-      const o = (py * width + px) * 4;
-      data[o] = lut[q]!;
-      data[o + 1] = lut[q + 1]!;
-      data[o + 2] = lut[q + 2]!;
-      data[o + 3] = alpha;
-    }
-  }
-  return { width, height, rect, data };
-}
-
 /** Node field → pixels, bilinear inside each cell (smooth potential). */
 export function rasterNodes(
   grid: FieldGrid,
