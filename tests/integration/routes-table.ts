@@ -62,6 +62,19 @@ interface RouteSpec {
   query?: string;
   /** Statuses that show the caller got past the access check. */
   ok: number[];
+  /**
+   * Ids of workspace B carried in the body or the query, sent by an owner of A: the exact
+   * status, nothing of B in the answer, nothing stored changed. (Path ids are swapped one at a
+   * time automatically from `foreignParams`.)
+   */
+  crossIds?: CrossIdCase[];
+}
+
+export interface CrossIdCase {
+  what: string;
+  body?: (w: World) => unknown;
+  query?: (w: World) => string;
+  status: number;
 }
 
 export interface RouteRow extends RouteSpec {
@@ -80,6 +93,11 @@ function accessOf(m: Matrix): RouteRow['access'] {
 }
 
 const WS = 'workspaces/[workspaceId]';
+
+/** A solve body naming the given section and revision. */
+function crossSolve(sectionId: string, revisionId: string, n: string) {
+  return { sectionId, revisionId, settings: { preset: 'quick' }, settingsHash: `cross-${n}`, result: fakeResult(), status: 'done' };
+}
 const SEC = `${WS}/sections/[sectionId]`;
 const SOL = `${WS}/solves/[solveId]`;
 
@@ -168,6 +186,7 @@ const SPECS: RouteSpec[] = [
     body: (_w, n) => ({ content: coaxSection(0.5 + n / 100), message: `edit ${n}` }),
     // 409 when the section is deleted at that moment is not expected: restore runs right after delete.
     ok: [201],
+    crossIds: [{ what: 'a base revision of B', body: (w) => ({ content: coaxSection(0.7), baseRevisionId: w.revisionB }), status: 409 }],
   },
   {
     file: `${SEC}/revisions/[revisionId]`,
@@ -184,6 +203,10 @@ const SPECS: RouteSpec[] = [
     params: (w) => ({ workspaceId: w.wsA }),
     query: '?sort=created&dir=desc',
     ok: [200],
+    crossIds: [
+      { what: 'solves of a section of B', query: (w) => `?sectionId=${w.sectionB}`, status: 200 },
+      { what: 'solves by a member of B', query: (w) => `?authorId=${w.users.outsider.id}`, status: 200 },
+    ],
   },
   {
     file: `${WS}/solves`,
@@ -199,6 +222,11 @@ const SPECS: RouteSpec[] = [
       status: 'done',
     }),
     ok: [201],
+    crossIds: [
+      { what: 'section and revision of B', body: (w) => crossSolve(w.sectionB, w.revisionB, 'bb'), status: 404 },
+      { what: 'section of A, revision of B', body: (w) => crossSolve(w.sectionA, w.revisionB, 'ab'), status: 404 },
+      { what: 'section of B, revision of A', body: (w) => crossSolve(w.sectionB, w.revisionA, 'ba'), status: 404 },
+    ],
   },
   {
     file: SOL,
@@ -358,6 +386,7 @@ const SPECS: RouteSpec[] = [
     params: (w) => ({ workspaceId: w.wsA }),
     query: '?targetType=section',
     ok: [200],
+    crossIds: [{ what: 'links of a section of B', query: (w) => `?targetType=section&targetId=${w.sectionB}`, status: 200 }],
   },
   {
     file: `${WS}/share-links`,
@@ -366,6 +395,10 @@ const SPECS: RouteSpec[] = [
     params: (w) => ({ workspaceId: w.wsA }),
     body: (w) => ({ targetType: 'section', targetId: w.sectionA, expiresInDays: 7 }),
     ok: [201],
+    crossIds: [
+      { what: 'a section of B', body: (w) => ({ targetType: 'section', targetId: w.sectionB, expiresInDays: 7 }), status: 404 },
+      { what: 'a solve of B', body: (w) => ({ targetType: 'solve', targetId: w.solveB, expiresInDays: 7 }), status: 404 },
+    ],
   },
   {
     // Idempotent: the editor revokes, the owner's second revoke also answers 200.
