@@ -141,9 +141,9 @@ function expectNoMarkers(text: string, wss: ('A' | 'B')[], who: string) {
   for (const ws of wss) for (const m of markers(ws)) expect(text.includes(m), `${who} received "${m}" of workspace ${ws}`).toBe(false);
 }
 
-async function callAs(row: RouteRow, actor: Actor) {
+async function callAs(row: RouteRow, actor: Actor, opts: { withToken?: boolean } = {}) {
   const { user, share } = caller(actor);
-  if (!share) return call(row, user);
+  if (!share && !opts.withToken) return call(row, user);
   // The holder of a link to A's solve (routes about solves) or to A's section (the rest),
   // while A allows public links, presenting the token every way a client could.
   const token = row.file.includes('[solveId]') ? holders.solveToken : holders.sectionToken;
@@ -169,6 +169,19 @@ describe.each(rows.map((r) => [`${r.method} /api/${r.file}`, r] as const))('%s',
       }
     });
   }
+
+  // A member of B who also holds a link of A: the token adds nothing to the B member's column.
+  const other = expectedFor(row.expect, 'otherWorkspace');
+  it(`${name} as member of another workspace holding a share link of A → ${other === OK ? row.ok.join(' or ') : other}`, async () => {
+    const r = await callAs(row, 'otherWorkspace', { withToken: true });
+    if (other === OK) {
+      expect(row.ok, JSON.stringify(r.json)).toContain(r.status);
+      expectNoMarkers(r.text, notTheirs('otherWorkspace'), 'member of B with a token of A');
+    } else {
+      expect(r.status, JSON.stringify(r.json)).toBe(other);
+      expectErrorShape(r.json);
+    }
+  });
 
   if (row.access === 'public' || row.access === 'user') return;
 

@@ -13,8 +13,9 @@
  * the read-only page /s/[token]).
  *
  * tests/integration/route-roles.test.ts generates one test per row × actor, named
- * "<METHOD> /api/<route> as <actor> → <status>", plus another workspace's ids → 404 and
- * malformed ids → 404; it checks that the columns are consistent (roles monotone, a token
+ * "<METHOD> /api/<route> as <actor> → <status>", plus: a member of B holding A's token (the
+ * B member's column), another workspace's ids in the path, body or query → 404 (`crossIds`),
+ * malformed ids → 404, and no answer carrying a workspace the caller is not in; it checks that the columns are consistent (roles monotone, a token
  * adds nothing), and fails when a route file under app/api exports a method this table does
  * not list. Server actions have their own table: tests/integration/actions-table.ts.
  */
