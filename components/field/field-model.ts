@@ -157,7 +157,7 @@ export function buildFieldModel(
     conductorCell,
     peak,
     get smooth() {
-      return (smooth ??= smoothField(grid, cells, nn, conductorCell));
+      return (smooth ??= smoothField(grid, cells, nn, conductorCell, fields.cellEpsR));
     },
     get eClip() {
       return range().clip;

@@ -48,7 +48,7 @@ export function paintOverlay(result: SectionResult, fields: SectionFields, secti
     let top = quantile(E.mag, 0.99, (c) => !metal(c));
     if (!(top > 0)) top = 1;
     // smooth: E recovered at the cell corners and interpolated per pixel
-    const smooth = smoothField(grid, E, fields.nodeNet, conductorCell);
+    const smooth = smoothField(grid, E, fields.nodeNet, conductorCell, fields.cellEpsR);
     img = rasterSmoothMagnitude(grid, smooth, rect, pw, ph, { kind: 'linear', min: 0, max: top }, colorLut('viridis'));
   } else {
     let lo = Infinity;

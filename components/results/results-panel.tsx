@@ -5,11 +5,14 @@
  * the two-terminal capacitance, line values for one signal net, the plate-pair card, and
  * how the solve went (time, mesh, iterations). Every table copies as tab-separated text.
  */
-import { useMemo, useState, type ReactNode } from 'react';
-import type { SectionResult } from '@/lib/engine/types';
+import { useMemo, useState } from 'react';
+import type { SectionFields, SectionResult } from '@/lib/engine/types';
+import type { Section } from '@/lib/section/schema';
 import { CAP_UNIT_FACTOR, type CapUnit, formatRelError, LENGTH_UNITS, type LengthUnit, sig, withPrefix } from '@/lib/field/format';
 import { cn } from '@/components/ui/cn';
 import { CopyButton } from './copy-button';
+import { Block, Item, ValueRow } from './blocks';
+import { LineSummary } from './line-summary';
 
 const C0 = 299_792_458; // speed of light in vacuum, m/s (exact, SI definition)
 const CAP_UNITS: CapUnit[] = ['pF/m', 'nF/m', 'pF/mm', 'fF/µm', 'pF/in'];
@@ -21,6 +24,11 @@ export interface ResultsPanelProps {
   /** Start with this per-length unit (the user can change it). */
   initialUnit?: CapUnit;
   className?: string;
+  /** This solve's finest-mesh fields and section: the summary works out losses and peak field from them. */
+  fields?: SectionFields | null;
+  section?: Section | null;
+  /** Shows a link from the summary to the detailed Analysis card. */
+  onShowDetails?: () => void;
 }
 
 /** Relative error of a sum Σ a_k given each term's relative error (worst case). */
@@ -50,7 +58,7 @@ export function referenceWords(reference: string[]): string {
   return parts.length ? parts.join(' and ') : 'ground';
 }
 
-export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }: ResultsPanelProps) {
+export function ResultsPanel({ result, units, initialUnit = 'pF/m', className, fields, section, onShowDetails }: ResultsPanelProps) {
   const [unit, setUnit] = useState<CapUnit>(initialUnit);
   const [lenText, setLenText] = useState('10');
   const [lenUnit, setLenUnit] = useState<LengthUnit>('mm');
@@ -147,6 +155,10 @@ export function ResultsPanel({ result, units, initialUnit = 'pF/m', className }:
         </label>
         <p className="pb-1.5 text-xs text-ink-muted">Estimated error {formatRelError(rel)} (beside each value).</p>
       </div>
+
+      {line || result.modes || result.modal || result.losses || result.peakField ? (
+        <LineSummary result={result} fields={fields} section={section} unit={unit} onShowDetails={onShowDetails} />
+      ) : null}
 
       {C2 !== null ? (
         <Block title="Two-terminal capacitance" testId="results-two-terminal">
@@ -294,60 +306,6 @@ function solveTsv(r: SectionResult): string {
     `relative residual\t${r.solver.relResidual}`,
     `error estimate (relative)\t${r.errorEstimate.relative}`,
   ].join('\n');
-}
-
-function Block({
-  title,
-  hint,
-  actions,
-  children,
-  testId,
-  tone,
-}: {
-  title: string;
-  hint?: string;
-  actions?: ReactNode;
-  children: ReactNode;
-  testId?: string;
-  tone?: 'accent';
-}) {
-  return (
-    <section
-      className={cn('rounded-md border p-3', tone === 'accent' ? 'border-copper-200 bg-copper-50' : 'border-line bg-surface')}
-      data-testid={testId}
-      aria-label={title}
-    >
-      <div className="mb-1.5 flex items-start justify-between gap-2">
-        <div>
-          <h3 className="text-sm font-semibold text-ink">{title}</h3>
-          {hint ? <p className="text-xs text-ink-muted">{hint}</p> : null}
-        </div>
-        {actions}
-      </div>
-      {children}
-    </section>
-  );
-}
-
-function ValueRow({ label, value, err, errText, testId }: { label: string; value: string; err?: number; errText?: string; testId?: string }) {
-  return (
-    <div className="flex items-baseline justify-between gap-3 border-b border-line/60 py-1 last:border-b-0">
-      <dt className="text-ink-soft">{label}</dt>
-      <dd className="text-right tabular-nums" data-testid={testId}>
-        <span className="font-medium text-ink">{value}</span>
-        {errText !== undefined || err !== undefined ? <span className="ml-1.5 whitespace-nowrap text-xs text-ink-muted">{errText ?? formatRelError(err)}</span> : null}
-      </dd>
-    </div>
-  );
-}
-
-function Item({ k, v }: { k: string; v: string }) {
-  return (
-    <div className="flex justify-between gap-2 border-b border-line/60 py-0.5">
-      <dt className="text-ink-soft">{k}</dt>
-      <dd className="text-right tabular-nums text-ink">{v}</dd>
-    </div>
-  );
 }
 
 function Matrix({

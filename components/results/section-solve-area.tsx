@@ -60,6 +60,12 @@ export function SectionSolveArea(props: SectionSolveAreaProps) {
 
   const running = state.status === 'running';
   const p = state.progress;
+  // the summary in the results panel links to the detailed Analysis card below the editor
+  const showAnalysis = useCallback(() => {
+    const card = document.querySelector<HTMLElement>('[data-testid="analysis-card"]');
+    card?.scrollIntoView({ behavior: 'smooth', block: 'start' });
+    card?.querySelector<HTMLElement>('[data-testid="analysis-tab-lines"]')?.focus({ preventScroll: true });
+  }, []);
   const quickSolve = () => {
     if (section) void solve(section, { preset: (section.mesh?.preset as 'quick' | 'standard' | 'precise' | undefined) ?? 'standard', tolerance: DEFAULT_TOLERANCE });
   };
@@ -111,7 +117,9 @@ export function SectionSolveArea(props: SectionSolveAreaProps) {
         canEdit={canEdit}
         solver={solver}
       />
-      {state.result && state.solvedSection ? <ResultsPanel result={state.result} units={state.solvedSection.units} /> : null}
+      {state.result && state.solvedSection ? (
+        <ResultsPanel result={state.result} units={state.solvedSection.units} fields={state.fields} section={state.solvedSection} onShowDetails={showAnalysis} />
+      ) : null}
     </div>
   );
 

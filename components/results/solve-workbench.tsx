@@ -226,7 +226,7 @@ export function SolveOutput({ solver, layout = 'stack' }: { solver: Solver; layo
       {state.result && state.fields && state.solvedSection ? (
         layout === 'split' ? (
           <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,26rem)_minmax(0,1fr)]">
-            <ResultsPanel result={state.result} units={state.solvedSection.units} />
+            <ResultsPanel result={state.result} units={state.solvedSection.units} fields={state.fields} section={state.solvedSection} />
             <FieldView result={state.result} fields={state.fields} section={state.solvedSection} />
           </div>
         ) : (
@@ -247,7 +247,7 @@ export function SolveOutput({ solver, layout = 'stack' }: { solver: Solver; layo
               ))}
             </div>
             {tab === 'results' ? (
-              <ResultsPanel result={state.result} units={state.solvedSection.units} />
+              <ResultsPanel result={state.result} units={state.solvedSection.units} fields={state.fields} section={state.solvedSection} />
             ) : (
               <FieldView result={state.result} fields={state.fields} section={state.solvedSection} />
             )}

@@ -13,7 +13,9 @@
  * sides). Values are therefore kept per cell corner: at a conductor node, a cell averages only
  * the cells it reaches around that node without crossing a mesh edge that lies on a conductor
  * (both ends conductor nodes). At free nodes every neighbouring cell counts, so the picture is
- * continuous there; across a strip it stays discontinuous, as the field is.
+ * continuous there; across a strip it stays discontinuous, as the field is. Given the cells'
+ * permittivities, an edge between cells of different εr separates too, so the jump of the
+ * normal field at a dielectric interface stays sharp instead of being smeared over two cells.
  *
  * Pure TypeScript: no DOM, no Node APIs.
  */
@@ -62,13 +64,20 @@ const CORNER_OF = [0, 1, 3, 2];
  * Recover E at the corners of every cell (see the module comment). `cells` are the
  * cell-centre values (cellField), `nodeNet` marks conductor nodes (−1 free).
  */
-export function smoothField(grid: FieldGrid, cells: CellField, nodeNet: ArrayLike<number>, conductorCell?: Uint8Array): SmoothField {
+export function smoothField(
+  grid: FieldGrid,
+  cells: CellField,
+  nodeNet: ArrayLike<number>,
+  conductorCell?: Uint8Array,
+  cellEps?: ArrayLike<number>,
+): SmoothField {
   const { xs, ys, nx, ny } = grid;
   const cx = nx - 1;
   const cy = ny - 1;
   const nc = cx * cy;
   if (cells.ex.length !== nc || cells.ey.length !== nc) throw new RangeError(`the cell field has ${cells.ex.length} values, the grid ${nc} cells`);
   if (nodeNet.length !== nx * ny) throw new RangeError(`nodeNet has ${nodeNet.length} values, the grid ${nx * ny} nodes`);
+  if (cellEps && cellEps.length !== nc) throw new RangeError(`cellEps has ${cellEps.length} values, the grid ${nc} cells`);
   const metal = conductorCell ?? conductorCells(grid, nodeNet);
   const cornerEx = new Float64Array(4 * nc).fill(Number.NaN);
   const cornerEy = new Float64Array(4 * nc).fill(Number.NaN);
@@ -99,8 +108,24 @@ export function smoothField(grid: FieldGrid, cells: CellField, nodeNet: ArrayLik
         const wy = oj >= 0 && oj < cy ? hy(oj) : hy(cj);
         w[q] = wx * wy;
       }
+      // edges that separate: along a conductor (both ends conductor nodes), or between two
+      // cells of different permittivity (the normal field jumps at a dielectric interface)
+      let blocked = 0;
       const free = nodeNet[n] === -1;
-      if (free) {
+      for (let q = 0; q < 4; q++) {
+        const a = cellAt[q]!;
+        const b = cellAt[(q + 1) % 4]!;
+        if (cellEps && a >= 0 && b >= 0 && cellEps[a] !== cellEps[b]) {
+          blocked |= 1 << q;
+          continue;
+        }
+        if (free) continue;
+        const mi = i + EDGE_DI[q]!;
+        const mj = j + EDGE_DJ[q]!;
+        // an edge off the mesh separates nothing
+        if (mi >= 0 && mj >= 0 && mi < nx && mj < ny && nodeNet[mj * nx + mi] !== -1) blocked |= 1 << q;
+      }
+      if (blocked === 0) {
         // every neighbouring cell counts: one value shared by all of them
         let sw = 0;
         let sx = 0;
@@ -123,14 +148,7 @@ export function smoothField(grid: FieldGrid, cells: CellField, nodeNet: ArrayLik
         }
         continue;
       }
-      // a conductor node: each cell averages the cells it reaches without crossing metal
-      let blocked = 0;
-      for (let q = 0; q < 4; q++) {
-        const mi = i + EDGE_DI[q]!;
-        const mj = j + EDGE_DJ[q]!;
-        // an edge off the mesh separates nothing; an edge along a conductor blocks
-        if (mi >= 0 && mj >= 0 && mi < nx && mj < ny && nodeNet[mj * nx + mi] !== -1) blocked |= 1 << q;
-      }
+      // each cell averages the cells it reaches around the node without crossing a separating edge
       for (let q = 0; q < 4; q++) {
         const c = cellAt[q]!;
         if (c < 0) continue;

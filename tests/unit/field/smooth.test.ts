@@ -185,6 +185,29 @@ describe('smooth |E| for display (node recovery + bilinear per pixel)', () => {
     expect(s.cornerEy[4 * ((jm - 1) * cx + 4) + 2]).toBeCloseTo(-0.25, 12); // cell below
   });
 
+  it('keeps the jump of the normal field at a dielectric interface sharp when given the cell permittivities', () => {
+    // εr = 4 below y = 0, 1 above; D = εE continuous: E = 1 below and 4 above (pointing down)
+    const xs = graded(7, 0.1, 1.3, -0.5);
+    const ys = Float64Array.from([-1, -0.5, -0.2, 0, 0.15, 0.4, 1]);
+    const g = makeGrid(xs, ys);
+    const phi = nodeField(xs, ys, (_x, y) => (y < 0 ? y : 4 * y));
+    const cx = g.nx - 1;
+    const eps = new Float32Array(cx * (g.ny - 1));
+    for (let j = 0; j < g.ny - 1; j++) for (let i = 0; i < cx; i++) eps[j * cx + i] = ys[j]! < 0 ? 4 : 1;
+    const E = cellField(g, phi);
+    const sharp = smoothField(g, E, allFree(g), undefined, eps);
+    expect(sampleSmooth(g, sharp, 0.1, 1e-9)!.ey).toBeCloseTo(-4, 12);
+    expect(sampleSmooth(g, sharp, 0.1, -1e-9)!.ey).toBeCloseTo(-1, 12);
+    // D·n is continuous across the interface in the picture too
+    expect(1 * sampleSmooth(g, sharp, 0.1, 1e-9)!.ey).toBeCloseTo(4 * sampleSmooth(g, sharp, 0.1, -1e-9)!.ey, 12);
+    // without the permittivities the two sides are averaged at the interface nodes
+    const blurred = smoothField(g, E, allFree(g));
+    const up = sampleSmooth(g, blurred, 0.1, 1e-9)!.ey;
+    expect(up).toBeGreaterThan(-4 + 0.5);
+    expect(up).toBeLessThan(-1 - 0.5);
+    expect(() => smoothField(g, E, allFree(g), undefined, new Float32Array(3))).toThrow(/cellEps has 3 values/);
+  });
+
   it('paints each pixel with the colour of the interpolated |E| at its centre (log scale too)', () => {
     const xs = graded(12, 0.05, 1.3);
     const ys = graded(10, 0.04, 1.35);
