@@ -32,6 +32,17 @@ export const MAX_SIZE_RATIO = 1e6;
 /** Smallest feature and largest section accepted, in metres. */
 export const MIN_FEATURE_M = 1e-12;
 export const MAX_SIZE_M = 1e6;
+/**
+ * Largest ratio of section size to an expert finest mesh spacing (`mesh.finest`). Measured on a
+ * wire over a plate at the quick preset: ratio 1e3 → 16 CG iterations in all, 1e4 → 32,
+ * 1e5 → 626 with one linear solve short of its tolerance, 1e6 → none of them reached it.
+ */
+export const MAX_FINEST_RATIO = 1e4;
+/**
+ * Largest relative permittivity accepted. Far above any insulator in use (ceramic capacitor
+ * dielectrics reach about 1e4); beyond about 1e100 the solver's residual norms overflow.
+ */
+export const MAX_EPS_R = 1e6;
 /** Short circuits reported at most (one is enough to block a solve). */
 const MAX_SHORTS_REPORTED = 50;
 
@@ -199,6 +210,7 @@ export function checkSection(section: ResolvedSection): SectionIssue[] {
     if (materialIds.has(m.id)) error({ code: 'duplicate-material', message: `material ${q(m.id)} is defined more than once`, path: ['materials', i, 'id'] });
     materialIds.add(m.id);
     if (!(m.epsR >= 1)) error({ code: 'value', message: `material ${q(m.id)}: epsR must be at least 1 (is ${fmt(m.epsR)})`, path: ['materials', i, 'epsR'] });
+    else if (!(m.epsR <= MAX_EPS_R)) error({ code: 'limit', message: `material ${q(m.id)}: epsR must be at most ${fmt(MAX_EPS_R)} (is ${fmt(m.epsR)})`, path: ['materials', i, 'epsR'] });
     if (m.lossTangent !== undefined && !(m.lossTangent >= 0)) {
       error({ code: 'value', message: `material ${q(m.id)}: lossTangent must not be negative (is ${fmt(m.lossTangent)})`, path: ['materials', i, 'lossTangent'] });
     }
@@ -208,6 +220,8 @@ export function checkSection(section: ResolvedSection): SectionIssue[] {
   });
   if (!(section.background.epsR >= 1)) {
     error({ code: 'value', message: `background: epsR must be at least 1 (is ${fmt(section.background.epsR)})`, path: ['background', 'epsR'] });
+  } else if (!(section.background.epsR <= MAX_EPS_R)) {
+    error({ code: 'limit', message: `background: epsR must be at most ${fmt(MAX_EPS_R)} (is ${fmt(section.background.epsR)})`, path: ['background', 'epsR'] });
   }
   if (section.background.lossTangent !== undefined && !(section.background.lossTangent >= 0)) {
     error({ code: 'value', message: `background: lossTangent must not be negative (is ${fmt(section.background.lossTangent)})`, path: ['background', 'lossTangent'] });
@@ -278,6 +292,12 @@ export function checkSection(section: ResolvedSection): SectionIssue[] {
     if (size * metres > MAX_SIZE_M) {
       error({ code: 'limit', message: `the section is ${fmt(size * metres)} m across; at most ${MAX_SIZE_M} m is allowed` });
     }
+    // An expert finest spacing far below the section size makes cells so stretched that the
+    // linear solves stop converging (1e-12 of the size gave a 320 % error estimate).
+    const finest = section.mesh?.finest;
+    if (finest !== undefined && size / finest > MAX_FINEST_RATIO) {
+      error({ code: 'limit', message: `mesh: finest spacing ${fmt(finest)} ${section.units} is ${fmt(size / finest)} times smaller than the whole section (${fmt(size)} ${section.units}); at most ${fmt(MAX_FINEST_RATIO)} is allowed`, path: ['mesh', 'finest'] });
+    }
   }
 
   // Boundaries: order, and shapes beyond or across ground and mirror lines.
@@ -338,16 +358,32 @@ export function checkSection(section: ResolvedSection): SectionIssue[] {
     .map((s, i) => ({ s, i, r: regions[i] }))
     .filter((c): c is { s: ResolvedShape & { conductor: string }; i: number; r: Region } => c.r !== null && c.s.conductor !== undefined && netRole.has(c.s.conductor));
   conductors.sort((a, b2) => a.r.bbox.xmin - b2.r.bbox.xmin);
+  // A gap between nets is a feature too: narrower than size / MAX_SIZE_RATIO it is refused
+  // like a shape that small (the mesh cannot hold cells across it).
+  const narrow = Math.max(tol, size / MAX_SIZE_RATIO);
   let shorts = 0;
   const insideOf = new Map<number, number>(); // conductor shape index -> index of another net's conductor containing it
   for (let a = 0; a < conductors.length && shorts < MAX_SHORTS_REPORTED; a++) {
     const A = conductors[a]!;
     for (let c = a + 1; c < conductors.length; c++) {
       const B = conductors[c]!;
-      if (B.r.bbox.xmin > A.r.bbox.xmax + tol) break;
+      if (B.r.bbox.xmin > A.r.bbox.xmax + narrow) break;
       if (A.s.conductor === B.s.conductor) continue;
-      if (bboxGap(A.r.bbox, B.r.bbox) > tol) continue;
-      if (regionDistance(A.r, B.r, tol) > tol) continue;
+      if (bboxGap(A.r.bbox, B.r.bbox) >= narrow) continue;
+      const d = regionDistance(A.r, B.r, narrow);
+      if (d >= narrow) continue;
+      if (d > tol) {
+        const [first, second] = A.i < B.i ? [A, B] : [B, A];
+        error({
+          code: 'limit',
+          message: `${shapeKind(first.s)} ${q(first.s.id)} (net ${q(first.s.conductor)}) and ${shapeKind(second.s)} ${q(second.s.id)} (net ${q(second.s.conductor)}) are only ${fmt(d)} ${section.units} apart, ${fmt(size / d)} times less than the whole section (${fmt(size)} ${section.units}); at most ${fmt(MAX_SIZE_RATIO)} is allowed`,
+          path: ['shapes', second.i],
+          shapeIds: [first.s.id, second.s.id],
+          net: second.s.conductor,
+        });
+        if (++shorts >= MAX_SHORTS_REPORTED) break;
+        continue;
+      }
       const [first, second] = A.i < B.i ? [A, B] : [B, A];
       error({
         code: 'short-circuit',
