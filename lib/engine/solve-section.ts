@@ -188,9 +188,35 @@ export function buildResult(
 }
 
 /**
+ * The numbers a result stands on (matrices, error estimate, line and plate values), checked
+ * finite before anything is reported: a non-finite value is an internal failure, never a
+ * result. Throws an Error naming the first bad entry (the CLI exits 1 on it, the worker
+ * reports it). The checks (lib/section/check.ts) keep valid sections away from this.
+ */
+export function assertFiniteResult(result: SectionResult): void {
+  const bad: string[] = [];
+  const scan = (v: unknown, where: string) => {
+    if (bad.length > 0) return;
+    if (typeof v === 'number') {
+      if (!Number.isFinite(v)) bad.push(`${where} = ${v}`);
+    } else if (Array.isArray(v)) v.forEach((x, i) => scan(x, `${where}[${i}]`));
+    else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) scan(x, `${where}.${k}`);
+  };
+  scan(result.capacitance, 'capacitance');
+  scan(result.errorEstimate.relative, 'errorEstimate.relative');
+  scan(result.errorEstimate.perEntry, 'errorEstimate.perEntry');
+  if (result.line) scan(result.line, 'line');
+  if (result.plates) scan(result.plates, 'plates');
+  if (bad.length > 0) {
+    throw new Error(`the solver produced a value that is not a finite number (${bad[0]}); no result is reported for this section`);
+  }
+}
+
+/**
  * Solve a section. Throws SectionError (with the issues) when the section is invalid,
  * SolveCancelledError when cancelled, RangeError when the core refuses the problem
- * (for example beyond the node limit).
+ * (for example beyond the node limit, before any set-up), Error when the solve produced a
+ * value that is not finite (assertFiniteResult).
  */
 export function solveSection(section: Section, opts: SolveSectionOptions = {}): SolveSectionOutput {
   const t0 = now();
@@ -210,6 +236,7 @@ export function solveSection(section: Section, opts: SolveSectionOptions = {}): 
     warnings.map((w) => w.message),
     ms,
   );
+  assertFiniteResult(result);
   Object.assign(result, lineAnalysis(result, { lengthM: opts.lengthM, riseTimeS: opts.riseTimeS }));
   const fields: SectionFields | undefined = sol.fields
     ? {

@@ -228,7 +228,12 @@ export function buildMesh(input: MeshInput, p: MeshParams, maxNodes = Infinity):
   const sx = input.structure;
   const margin = 0.3 * Math.max(sx.x1 - sx.x0, sx.y1 - sx.y0);
   // one axis beyond MAX_AXIS nodes is refused too (it stops absurd requests early)
-  const xs = buildAxis(x0, x1, xLines, xSpans, sx.x0 - margin, sx.x1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / 5)));
+  // Guard (robustness work): every distinct y key line inside the domain is a node of ys and
+  // every interval between them gets at least STEP cells, so xs may hold at most maxNodes over
+  // that many nodes (2 kept in hand for key lines merged with the domain ends); without it a
+  // refused mesh with many vertices first built its whole x axis (14 s for a 2000-point polygon).
+  const nyKeys = yKeys.filter((y) => y >= y0 - 1e-9 && y <= y1 + 1e-9).length;
+  const xs = buildAxis(x0, x1, xLines, xSpans, sx.x0 - margin, sx.x1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / Math.max(5, STEP * (nyKeys - 3)))));
   const ys = buildAxis(y0, y1, yLines, ySpans, sx.y0 - margin, sx.y1 + margin, p, Math.min(MAX_AXIS, Math.floor(maxNodes / xs.length)));
   return { xs, ys };
 }
