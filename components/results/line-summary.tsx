@@ -256,7 +256,7 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
           <Row k="Peak |E|" v={pending ? '…' : canCompute ? '—' : 'not part of this result'} />
         )}
       </dl>
-      {peak || canCompute ? <FieldCaution compact className="mt-2" /> : null}
+      {peak || canCompute ? <FieldCaution compact className="mt-2" testId="summary-caution" /> : null}
     </Block>
   );
 }
