@@ -12,7 +12,7 @@
  *   pcSW, pcSE, pcNW, pcNE[K]  weights of fine (2I+1, 2J+1) to coarse (I,J), (I+1,J), (I,J+1), (I+1,J+1)
  * with K = J*ncx + I + off. Weights of missing fine nodes and to missing coarse nodes are 0.
  */
-import type { SweepLevel } from './smoothers';
+import type { Real, SweepLevel } from './smoothers';
 
 /** A 9-point stencil on an nx × ny grid (unpadded arrays; diagonals null for a 5-point one). */
 export interface Stencil9 {
@@ -38,14 +38,14 @@ export interface Transfer {
   ncx: number;
   ncy: number;
   off: number;
-  pxW: Float64Array;
-  pxE: Float64Array;
-  pyS: Float64Array;
-  pyN: Float64Array;
-  pcSW: Float64Array;
-  pcSE: Float64Array;
-  pcNW: Float64Array;
-  pcNE: Float64Array;
+  pxW: Real;
+  pxE: Real;
+  pyS: Real;
+  pyN: Real;
+  pcSW: Real;
+  pcSE: Real;
+  pcNW: Real;
+  pcNE: Real;
 }
 
 /** Number of coarse nodes along a line of m fine nodes (the even ones). */
@@ -59,17 +59,16 @@ export function padFor(nx: number): number {
 }
 
 /** Builds the interpolation weights from the fine stencil. Allocates the Transfer. */
-export function buildTransfer(A: Stencil9, fineOff: number): Transfer {
+export function buildTransfer(A: Stencil9, fineOff: number, single = false): Transfer {
   const { nx, ny, c, w, e, s, n } = A;
   const ncx = coarseCount(nx), ncy = coarseCount(ny);
   const off = padFor(ncx);
   const len = ncx * ncy + 2 * off;
+  const mk = (): Real => (single ? new Float32Array(len) : new Float64Array(len));
   const t: Transfer = {
     nx, ny, fineOff, ncx, ncy, off,
-    pxW: new Float64Array(len), pxE: new Float64Array(len),
-    pyS: new Float64Array(len), pyN: new Float64Array(len),
-    pcSW: new Float64Array(len), pcSE: new Float64Array(len),
-    pcNW: new Float64Array(len), pcNE: new Float64Array(len),
+    pxW: mk(), pxE: mk(), pyS: mk(), pyN: mk(),
+    pcSW: mk(), pcSE: mk(), pcNW: mk(), pcNE: mk(),
   };
   const d9 = (a: Float64Array | null, k: number) => (a === null ? 0 : a[k]);
   const { sw, se, nw, ne } = A;
@@ -243,7 +242,7 @@ export function galerkin(A: Stencil9, t: Transfer): Stencil9 {
 /**
  * Restriction bc = Pᵀ rf (padded vectors; rf's margins are zero). Writes bc inside the coarse grid.
  */
-export function restrict(t: Transfer, rf: Float64Array, bc: Float64Array): void {
+export function restrict(t: Transfer, rf: Real, bc: Real): void {
   const { nx, ncx, ncy, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
   for (let J = 0; J < ncy; J++) {
     let K = J * ncx + off;
@@ -264,7 +263,7 @@ export function restrict(t: Transfer, rf: Float64Array, bc: Float64Array): void 
 }
 
 /** Interpolation xf += P xc (padded vectors; xc's margins are zero). Writes xf inside the fine grid. */
-export function interpolateAdd(t: Transfer, xc: Float64Array, xf: Float64Array): void {
+export function interpolateAdd(t: Transfer, xc: Real, xf: Real): void {
   const { nx, ny, ncx, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
   const nxEven = nx & ~1; // fine columns 0..nxEven-1 come in (even, odd) pairs
   for (let j = 0; j < ny; j++) {
@@ -297,11 +296,11 @@ export function interpolateAdd(t: Transfer, xc: Float64Array, xf: Float64Array):
  * (padded storage, see ./smoothers) and writes bc inside the coarse grid. Same result as a
  * full residual followed by `restrict`, up to round-off.
  */
-export function residualRestrictEven(lv: SweepLevel, t: Transfer, bc: Float64Array): void {
+export function residualRestrictEven(lv: SweepLevel, t: Transfer, bc: Real): void {
   const { nx, ny, off: fo, c, w, s, x, b } = lv;
   const { ncx, ncy, off, pyS, pyN } = t;
   bc.fill(0, off, off + ncx * ncy);
-  const sw = lv.sw, se = lv.se as Float64Array;
+  const sw = lv.sw, se = lv.se as Real;
   for (let j = 0; j < ny; j++) {
     const J = j >> 1;
     const odd = (j & 1) === 1;
@@ -328,7 +327,7 @@ export function residualRestrictEven(lv: SweepLevel, t: Transfer, bc: Float64Arr
  * step solves the odd columns exactly (their new values do not depend on the old ones, so the
  * interpolated values there would be overwritten anyway). Writes xf on the even columns.
  */
-export function interpolateAddEven(t: Transfer, xc: Float64Array, xf: Float64Array): void {
+export function interpolateAddEven(t: Transfer, xc: Real, xf: Real): void {
   const { nx, ny, ncx, off, fineOff, pyS, pyN } = t;
   for (let j = 0; j < ny; j++) {
     let K = (j >> 1) * ncx + off;
@@ -350,7 +349,7 @@ export function interpolateAddEven(t: Transfer, xc: Float64Array, xf: Float64Arr
  * (padded fine vector; other entries are left as they are and meet zero weights) and bc
  * inside the coarse grid. Same result as a full residual and `restrict`, up to round-off.
  */
-export function residualRestrictRed(lv: SweepLevel, t: Transfer, r: Float64Array, bc: Float64Array): void {
+export function residualRestrictRed(lv: SweepLevel, t: Transfer, r: Real, bc: Real): void {
   const { nx, ny, off: fo, c, w, s, x, b } = lv;
   const { ncx, ncy, off, pcSW, pcSE, pcNW, pcNE } = t;
   for (let j = 1; j < ny; j += 2) {
@@ -374,7 +373,7 @@ export function residualRestrictRed(lv: SweepLevel, t: Transfer, r: Float64Array
  * centres), for a cycle whose first post-smoothing half-sweep recomputes every black node from
  * its red neighbours (5-point level). Writes xf at the red nodes.
  */
-export function interpolateAddRed(t: Transfer, xc: Float64Array, xf: Float64Array): void {
+export function interpolateAddRed(t: Transfer, xc: Real, xf: Real): void {
   const { nx, ny, ncx, off, fineOff, pcSW, pcSE, pcNW, pcNE } = t;
   for (let j = 0; j < ny; j++) {
     let K = (j >> 1) * ncx + off;
@@ -384,6 +383,93 @@ export function interpolateAddRed(t: Transfer, xc: Float64Array, xf: Float64Arra
       for (let f = fr; f < end; f += 2, K++) xf[f] += xc[K];
     } else {
       for (let f = fr + 1; f < end; f += 2, K++) xf[f] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+    }
+  }
+}
+
+/**
+ * The whole fine-level descent of a cycle with red–black point smoothing, in one pass over
+ * memory: a red-first sweep from a zero start (red nodes x = b/c, then black nodes from
+ * their red neighbours), the residual at the red nodes (the black ones are zero after the
+ * sweep) and the restriction bc = Pᵀ r. Rows are pipelined: red row j, black row j − 1,
+ * residual row j − 2, then the coarse row whose three fine rows are complete. Same arithmetic
+ * as sweepRedBlack(lv, cInv, true, true) followed by residualRestrictRed(lv, t, r, bc), so the
+ * same result. Writes lv.x, r at the red nodes and bc inside the coarse grid.
+ */
+export function smoothResidualRestrictRed(lv: SweepLevel, cInv: Real, t: Transfer, r: Real, bc: Real): void {
+  const { nx, ny, off: fo, c, w, s, x, b } = lv;
+  const { ncx, off, pcSW, pcSE, pcNW, pcNE } = t;
+  for (let j = 0; j < ny + 3; j++) {
+    const jr = j; // red row
+    if (jr < ny) {
+      const r0 = fo + jr * nx;
+      for (let kk = r0 + (jr & 1); kk < r0 + nx; kk += 2) x[kk] = b[kk] * cInv[kk];
+    }
+    const jb = j - 1; // black row
+    if (jb >= 0 && jb < ny) {
+      const r0 = fo + jb * nx;
+      for (let kk = r0 + 1 - (jb & 1); kk < r0 + nx; kk += 2) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+      }
+    }
+    const jq = j - 2; // residual row: its red nodes are final, and so are their neighbours
+    if (jq >= 0 && jq < ny) {
+      if ((jq & 1) === 1) {
+        // odd row: the red nodes are the cell centres (odd columns), kept in r
+        const r0 = fo + jq * nx;
+        for (let kk = r0 + 1; kk < r0 + nx; kk += 2) {
+          r[kk] = b[kk] - c[kk] * x[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
+        }
+      }
+      // coarse row J is complete once fine rows 2J − 1, 2J, 2J + 1 (those that exist) are;
+      // the coarse nodes' own residuals (row 2J, even columns) are computed here
+      if ((jq & 1) === 1 || jq === ny - 1) {
+        const J = jq >> 1;
+        let K = J * ncx + off;
+        let f = 2 * J * nx + fo;
+        for (let I = 0; I < ncx; I++, K++, f += 2) {
+          const rv = b[f] - c[f] * x[f] + w[f] * x[f - 1] + w[f + 1] * x[f + 1] + s[f] * x[f - nx] + s[f + nx] * x[f + nx];
+          bc[K] = rv + pcSW[K] * r[f + nx + 1] + pcSE[K - 1] * r[f + nx - 1] + pcNW[K - ncx] * r[f - nx + 1] + pcNE[K - ncx - 1] * r[f - nx - 1];
+        }
+      }
+    }
+  }
+}
+
+/**
+ * The whole fine-level ascent of a cycle with red–black point smoothing, in one pass over
+ * memory: the correction xf += P xc at the red nodes, then a black-first sweep (the adjoint
+ * of the descent's red-first sweep). Rows are pipelined: interpolation row j, black row j − 1,
+ * red row j − 2. Same arithmetic as interpolateAddRed(t, xc, lv.x) followed by
+ * sweepRedBlack(lv, cInv, false, false). Writes lv.x.
+ */
+export function interpolateSmoothRed(t: Transfer, xc: Real, lv: SweepLevel, cInv: Real): void {
+  const { nx, ny, off: fo, w, s, x, b } = lv;
+  const { ncx, off, pcSW, pcSE, pcNW, pcNE } = t;
+  for (let j = 0; j < ny + 2; j++) {
+    if (j < ny) {
+      let K = (j >> 1) * ncx + off;
+      const fr = j * nx + fo;
+      const end = fr + nx;
+      if ((j & 1) === 0) {
+        for (let f = fr; f < end; f += 2, K++) x[f] += xc[K];
+      } else {
+        for (let f = fr + 1; f < end; f += 2, K++) x[f] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+      }
+    }
+    const jb = j - 1; // black row
+    if (jb >= 0 && jb < ny) {
+      const r0 = fo + jb * nx;
+      for (let kk = r0 + 1 - (jb & 1); kk < r0 + nx; kk += 2) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+      }
+    }
+    const jr = j - 2; // red row
+    if (jr >= 0) {
+      const r0 = fo + jr * nx;
+      for (let kk = r0 + (jr & 1); kk < r0 + nx; kk += 2) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+      }
     }
   }
 }

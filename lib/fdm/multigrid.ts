@@ -22,7 +22,7 @@
  */
 import type { IterativeSolveOptions, IterativeSolveResult, Operator5 } from './types';
 import { SolveCancelledError } from './types';
-import { factorLines, inverseDiagonal, residualFull, sweepColumns, sweepRedBlack, sweepRows, type SweepLevel } from './smoothers';
+import { factorLines, inverseDiagonal, residualFull, sweepColumns, sweepGaussSeidel, sweepRedBlack, sweepRows, type Real, type SweepLevel } from './smoothers';
 import {
   buildTransfer,
   galerkin,
@@ -33,6 +33,8 @@ import {
   residualRestrictEven,
   residualRestrictRed,
   interpolateAddRed,
+  interpolateSmoothRed,
+  smoothResidualRestrictRed,
   type Stencil9,
   type Transfer,
 } from './multigrid-transfer';
@@ -72,13 +74,32 @@ export interface HierarchyOptions {
   pointRatio?: number;
   /** @default 0.01 */
   pointFraction?: number;
+  /**
+   * Smoother of the coarse (9-point Galerkin) levels: 'line' (alternating zebra lines),
+   * 'point' (lexicographic Gauss–Seidel, forward before and backward after the coarse
+   * correction: one pass over memory instead of about four) or 'auto': 'point' on a level
+   * where fewer than `pointFraction` of the nodes couple `pointRatio` times more strongly
+   * along one axis than along the other, else 'line'. @default 'auto'
+   */
+  coarseSmoother?: 'line' | 'point' | 'auto';
+  /**
+   * Storage of the multigrid hierarchy (operators, transfer weights, line factors, level
+   * vectors): 'single' (Float32Array; about half the memory traffic per cycle) or 'double'.
+   * CG, its vectors, the fine operator of its products and the residual test stay in double
+   * precision either way; the coarsest (banded Cholesky) solve is always double. Single
+   * storage makes the preconditioner symmetric only to single-precision round-off, which the
+   * flexible (Polak–Ribière) β of the CG in `solve` absorbs (Notay 2000). @default 'single'
+   */
+  precision?: 'single' | 'double';
 }
 
 /** One grid level: its operator, line factors and padded work vectors (see SweepLevel). */
 export interface MgLevel extends SweepLevel {
   size: number;
   /** Residual work vector (padded). */
-  r: Float64Array;
+  r: Real;
+  /** 1/c when this coarse level is smoothed by lexicographic Gauss–Seidel, else null. */
+  gsInv: Real | null;
 }
 
 /** Banded Cholesky factor of the coarsest operator (band index m ↔ grid node perm[m]). */
@@ -107,12 +128,23 @@ export interface Hierarchy {
   gammaPerLevel: Int32Array;
   /** Decoupled nodes (all couplings zero): x = rhs / c there. */
   fixed: Int32Array;
-  /** CG vectors, padded like level 0 (its b is the CG residual, its x the preconditioned residual). */
+  /**
+   * CG vectors (double precision), padded like level 0: iterate, residual, direction and A·direction.
+   * The preconditioner reads the residual from levels[0].b (a copy in the hierarchy's
+   * precision) and leaves z = M r in levels[0].x.
+   */
   xp: Float64Array;
+  rp: Float64Array;
   pp: Float64Array;
   qp: Float64Array;
+  /** Lower half of the fine operator in double precision, padded like level 0 (for CG's products). */
+  fc: Float64Array;
+  fw: Float64Array;
+  fs: Float64Array;
+  /** Storage precision of the hierarchy. */
+  precision: 'single' | 'double';
   /** 1/c of the finest level when it is smoothed by red–black point Gauss–Seidel, else null. */
-  pointInv: Float64Array | null;
+  pointInv: Real | null;
   /** Fraction of the fine nodes with all four couplings whose x/y coupling ratio passes the threshold. */
   anisotropicFraction: number;
   /** Number of nodes on all levels divided by the fine size (grid complexity). */
@@ -152,26 +184,62 @@ function checkOperator(op: Operator5): void {
   }
 }
 
+/** Padded copy of an unpadded array. */
+function padded(a: Float64Array, off: number, single: boolean): Real {
+  const p = single ? new Float32Array(a.length + 2 * off) : new Float64Array(a.length + 2 * off);
+  p.set(a, off);
+  return p;
+}
+
+const f32 = new Float32Array(1);
+const i32 = new Int32Array(f32.buffer);
+
+/** The smallest single-precision number ≥ v (v > 0). */
+function roundUp32(v: number): number {
+  f32[0] = v;
+  if (f32[0] < v) i32[0]++;
+  return f32[0];
+}
+
+/**
+ * In single storage, rounding the couplings and the diagonal independently could make a
+ * nearly singular row (an isolated region, a Neumann side) lose its diagonal dominance and the
+ * stored operator its definiteness. So each diagonal is rounded up to cover the change of its
+ * row's rounded couplings: c32 ≥ c + Σ (|a32| − |a|), at most a few units in the last place.
+ */
+function roundDiagonalUp(A: Stencil9, lv: MgLevel): void {
+  const { nx, ny } = A;
+  const { off, c, w, s, sw, se } = lv;
+  const d = (a32: number, a64: number) => Math.abs(a32) - Math.abs(a64);
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = j * nx + i;
+      const kk = k + off;
+      let t = A.c[k] + d(w[kk], A.w[k]) + d(w[kk + 1], A.e[k]) + d(s[kk], A.s[k]) + d(s[kk + nx], A.n[k]);
+      if (sw !== null && se !== null && A.sw !== null && A.se !== null && A.nw !== null && A.ne !== null) {
+        t += d(sw[kk], A.sw[k]) + d(se[kk], A.se[k]) + d(se[kk + nx - 1], A.nw[k]) + d(sw[kk + nx + 1], A.ne[k]);
+      }
+      if (c[kk] < t) c[kk] = roundUp32(t);
+    }
+  }
+}
+
 /** Padded symmetric-half storage of a level plus its line factors and work vectors. */
-function makeLevel(A: Stencil9): MgLevel {
+function makeLevel(A: Stencil9, single: boolean): MgLevel {
   const { nx, ny } = A;
   const size = nx * ny;
   const off = padFor(nx);
   const len = size + 2 * off;
-  const pad = (a: Float64Array): Float64Array => {
-    const p = new Float64Array(len);
-    p.set(a, off);
-    return p;
-  };
+  const mk = (): Real => (single ? new Float32Array(len) : new Float64Array(len));
   const lv: MgLevel = {
     nx, ny, size, off,
-    c: pad(A.c), w: pad(A.w), s: pad(A.s),
-    sw: A.sw === null ? null : pad(A.sw),
-    se: A.se === null ? null : pad(A.se),
-    xInv: new Float64Array(len), xU: new Float64Array(len),
-    yInv: new Float64Array(len), yU: new Float64Array(len),
-    x: new Float64Array(len), b: new Float64Array(len), r: new Float64Array(len),
+    c: padded(A.c, off, single), w: padded(A.w, off, single), s: padded(A.s, off, single),
+    sw: A.sw === null ? null : padded(A.sw, off, single),
+    se: A.se === null ? null : padded(A.se, off, single),
+    xInv: mk(), xU: mk(), yInv: mk(), yU: mk(),
+    x: mk(), b: mk(), r: mk(), gsInv: null,
   };
+  if (single) roundDiagonalUp(A, lv);
   factorLines(lv);
   return lv;
 }
@@ -257,7 +325,7 @@ function coarseSolve(ch: BandCholesky, lv: MgLevel): void {
 }
 
 /** Fraction of the nodes with four positive couplings whose (w+e)/(s+n) or inverse is ≥ threshold. */
-function measureAnisotropy(op: Operator5, threshold: number): number {
+function measureAnisotropy(op: { c: Float64Array; w: Float64Array; e: Float64Array; s: Float64Array; n: Float64Array }, threshold: number): number {
   const { c, w, e, s, n } = op;
   let counted = 0, strong = 0;
   for (let k = 0; k < c.length; k++) {
@@ -284,10 +352,16 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     /** @default 30 */ anisotropyThreshold = 30,
     coarseSweeps,
     fineSmoother = 'auto',
+    coarseSmoother = 'auto',
     pointRatio = 2,
     pointFraction = 0.01,
+    precision = 'single',
   } = opts;
+  if (precision !== 'single' && precision !== 'double') throw new RangeError("precision must be 'single' or 'double'");
+  // single storage only where there is a hierarchy: a grid solved directly stays exact
+  const single = precision === 'single' && maxLevels > 1 && Math.min(op.nx, op.ny) >= 5 && op.nx * op.ny > coarsestNodes;
   if (fineSmoother !== 'line' && fineSmoother !== 'point' && fineSmoother !== 'auto') throw new RangeError("fineSmoother must be 'line', 'point' or 'auto'");
+  if (coarseSmoother !== 'line' && coarseSmoother !== 'point' && coarseSmoother !== 'auto') throw new RangeError("coarseSmoother must be 'line', 'point' or 'auto'");
   if (!Number.isInteger(maxLevels) || maxLevels < 1) throw new RangeError('maxLevels must be an integer >= 1');
   if (!Number.isInteger(sweeps) || sweeps < 1) throw new RangeError('sweeps must be an integer >= 1');
   if (coarseSweeps !== undefined && (!Number.isInteger(coarseSweeps) || coarseSweeps < 1)) throw new RangeError('coarseSweeps must be an integer >= 1');
@@ -298,14 +372,16 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
   const { nx, ny } = op;
   const size = nx * ny;
   let A: Stencil9 = { nx, ny, c: op.c, w: op.w, e: op.e, s: op.s, n: op.n, sw: null, se: null, nw: null, ne: null };
-  const levels: MgLevel[] = [makeLevel(A)];
+  const levels: MgLevel[] = [makeLevel(A, single)];
   const transfers: Transfer[] = [];
   let nodes = size;
   while (levels.length < maxLevels && Math.min(A.nx, A.ny) >= 5 && A.nx * A.ny > coarsestNodes) {
-    const t = buildTransfer(A, levels[levels.length - 1].off);
+    const t = buildTransfer(A, levels[levels.length - 1].off, single);
     A = galerkin(A, t);
     transfers.push(t);
-    levels.push(makeLevel(A));
+    const lv = makeLevel(A, single);
+    if (coarseSmoother === 'point' || (coarseSmoother === 'auto' && measureAnisotropy(A, pointRatio) < pointFraction)) lv.gsInv = inverseDiagonal(lv);
+    levels.push(lv);
     nodes += A.nx * A.ny;
   }
   const coarse = factorBand(A);
@@ -317,7 +393,8 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
   const stretched = anisotropicFraction >= 0.01;
   const useW = cycleType === 'W';
   const point = levels.length > 1 && (fineSmoother === 'point' || (fineSmoother === 'auto' && measureAnisotropy(op, pointRatio) < pointFraction));
-  const padLen = size + 2 * levels[0].off;
+  const off0 = levels[0].off;
+  const padLen = size + 2 * off0;
   return {
     nx, ny, op, levels, transfers, coarse,
     sweepsPerLevel: Int32Array.from(levels, (_, l) => (l === 0 ? sweeps : coarseSweeps ?? (stretched ? 2 : 1))),
@@ -326,8 +403,13 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     pointInv: point ? inverseDiagonal(levels[0]) : null,
     fixed: Int32Array.from(fixedList),
     xp: new Float64Array(padLen),
+    rp: new Float64Array(padLen),
     pp: new Float64Array(padLen),
     qp: new Float64Array(padLen),
+    fc: padded(op.c, off0, false) as Float64Array,
+    fw: padded(op.w, off0, false) as Float64Array,
+    fs: padded(op.s, off0, false) as Float64Array,
+    precision: single ? 'single' : 'double',
     gridComplexity: nodes / size,
   };
 }
@@ -372,6 +454,13 @@ function cycle(h: Hierarchy, l: number): void {
   const sweeps = h.sweepsPerLevel[l];
   const t = transfers[l];
   if (l === 0 && h.pointInv !== null && h.gammaPerLevel[l] === 1) {
+    if (sweeps === 1) {
+      // the same steps as below, each fused into one pass over memory
+      smoothResidualRestrictRed(lv, h.pointInv, t, lv.r, cl.b);
+      cycle(h, l + 1);
+      interpolateSmoothRed(t, cl.x, lv, h.pointInv);
+      return;
+    }
     // red–black point smoothing: red first before, black first after (the adjoint)
     for (let v = 0; v < sweeps; v++) sweepRedBlack(lv, h.pointInv, true, v === 0);
     // the last half-sweep solved the black nodes: their residual is zero
@@ -380,6 +469,20 @@ function cycle(h: Hierarchy, l: number): void {
     // the first half-sweep recomputes the black nodes, so only the red ones take the correction
     interpolateAddRed(t, cl.x, lv.x);
     for (let v = 0; v < sweeps; v++) sweepRedBlack(lv, h.pointInv, false, false);
+    return;
+  }
+  const gs = lv.gsInv;
+  if (gs !== null) {
+    // lexicographic Gauss–Seidel: forward before, backward after (the adjoint)
+    for (let v = 0; v < sweeps; v++) sweepGaussSeidel(lv, gs, true, v === 0);
+    for (let g = 0; g < h.gammaPerLevel[l]; g++) {
+      if (g > 0) interpolateAdd(t, cl.x, lv.x);
+      residualFull(lv, lv.r);
+      restrict(t, lv.r, cl.b);
+      cycle(h, l + 1);
+    }
+    interpolateAdd(t, cl.x, lv.x);
+    for (let v = 0; v < sweeps; v++) sweepGaussSeidel(lv, gs, false, false);
     return;
   }
   preSmooth(lv, sweeps);
@@ -397,9 +500,10 @@ function cycle(h: Hierarchy, l: number): void {
   postSmooth(lv, sweeps);
 }
 
-/** out = A x on level 0's padded storage; returns x·out. Writes out inside the grid. */
-function matvecDot(lv: MgLevel, x: Float64Array, out: Float64Array): number {
-  const { nx, off, size, c, w, s } = lv;
+/** out = A x with the double-precision fine operator (padded like level 0); returns x·out. Writes out inside the grid. */
+function matvecDot(h: Hierarchy, x: Float64Array, out: Float64Array): number {
+  const { fc: c, fw: w, fs: s } = h;
+  const { nx, off, size } = h.levels[0];
   let d = 0;
   for (let kk = off; kk < off + size; kk++) {
     const xk = x[kk];
@@ -411,11 +515,13 @@ function matvecDot(lv: MgLevel, x: Float64Array, out: Float64Array): number {
 }
 
 /**
- * p = z + beta·p, then out = A p; returns p·out. One pass: row j+1 of p is updated just before
- * row j of the product needs it. Writes p and out inside the grid.
+ * p = z + beta·p, then out = A p with the double-precision fine operator; returns p·out. One
+ * pass: row j+1 of p is updated just before row j of the product needs it. Writes p and out
+ * inside the grid.
  */
-function updateMatvecDot(lv: MgLevel, z: Float64Array, beta: number, p: Float64Array, out: Float64Array): number {
-  const { nx, ny, off, c, w, s } = lv;
+function updateMatvecDot(h: Hierarchy, z: Real, beta: number, p: Float64Array, out: Float64Array): number {
+  const { fc: c, fw: w, fs: s } = h;
+  const { nx, ny, off } = h.levels[0];
   const update = (j: number) => {
     const r = off + j * nx;
     if (beta === 0) for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk];
@@ -448,19 +554,42 @@ function updateMatvecDot(lv: MgLevel, z: Float64Array, beta: number, p: Float64A
   return d0 + d1;
 }
 
-/** Σ a_k b_k over the grid part [off, off + size) of two padded vectors (four partial sums). */
-function dotPadded(a: Float64Array, b: Float64Array, off: number, size: number): number {
+/** Σ z_k r_k over the grid part [off, off + size) of two padded vectors (four partial sums). */
+function dotPadded(z: Real, r: Float64Array, off: number, size: number): number {
   let d0 = 0, d1 = 0, d2 = 0, d3 = 0;
   const end = off + size;
   let k = off;
   for (; k + 3 < end; k += 4) {
-    d0 += a[k] * b[k];
-    d1 += a[k + 1] * b[k + 1];
-    d2 += a[k + 2] * b[k + 2];
-    d3 += a[k + 3] * b[k + 3];
+    d0 += z[k] * r[k];
+    d1 += z[k + 1] * r[k + 1];
+    d2 += z[k + 2] * r[k + 2];
+    d3 += z[k + 3] * r[k + 3];
   }
-  for (; k < end; k++) d0 += a[k] * b[k];
+  for (; k < end; k++) d0 += z[k] * r[k];
   return d0 + d1 + d2 + d3;
+}
+
+/** Result slots of dotPair. */
+const pair = new Float64Array(2);
+
+/** pair = [z·r, z·q] over the grid part of padded vectors, in one pass. */
+function dotPair(z: Real, r: Float64Array, q: Float64Array, off: number, size: number): void {
+  let a0 = 0, a1 = 0, b0 = 0, b1 = 0;
+  const end = off + size;
+  let k = off;
+  for (; k + 1 < end; k += 2) {
+    const z0 = z[k], z1 = z[k + 1];
+    a0 += z0 * r[k];
+    a1 += z1 * r[k + 1];
+    b0 += z0 * q[k];
+    b1 += z1 * q[k + 1];
+  }
+  for (; k < end; k++) {
+    a0 += z[k] * r[k];
+    b0 += z[k] * q[k];
+  }
+  pair[0] = a0 + a1;
+  pair[1] = b0 + b1;
 }
 
 /**
@@ -468,6 +597,11 @@ function dotPadded(a: Float64Array, b: Float64Array, off: number, size: number):
  * when rhs = 0); convergence is confirmed on the true residual b − A x. Calls onIteration after
  * each iteration (returning false stops), checks isCancelled between iterations and then throws
  * SolveCancelledError. Returns a new x; the hierarchy's buffers are overwritten.
+ *
+ * The direction update uses the Polak–Ribière β = z·(r − r_old) / (z_old·r_old) = −z·q_old /
+ * (p_old·q_old) (flexible CG, Notay 2000): equal to the classical β in exact arithmetic with a
+ * symmetric preconditioner, and robust when the single-precision hierarchy makes the
+ * preconditioner symmetric only to round-off. It costs one more dot product, fused with z·r.
  */
 export function solve(
   h: Hierarchy,
@@ -481,11 +615,11 @@ export function solve(
     isCancelled,
     x0,
   } = opts;
-  const { op, xp, pp, qp, fixed } = h;
+  const { op, xp, rp, pp, qp, fixed } = h;
   const lv0 = h.levels[0];
   const off = lv0.off;
-  const rp = lv0.b;
-  const zp = lv0.x;
+  const bp = lv0.b; // the residual as the preconditioner reads it
+  const zp = lv0.x; // the preconditioned residual
   const size = h.nx * h.ny;
   if (!(rhs instanceof Float64Array) || rhs.length !== size) throw new RangeError(`rhs must be a Float64Array of length ${size}`);
   if (x0 !== undefined && (!(x0 instanceof Float64Array) || x0.length !== size)) throw new RangeError(`x0 must be a Float64Array of length ${size}`);
@@ -504,12 +638,13 @@ export function solve(
 
   // r = b − A x
   const trueResidual = (): number => {
-    matvecDot(lv0, xp, qp);
+    matvecDot(h, xp, qp);
     let rr = 0;
     for (let k = 0; k < size; k++) {
       const kk = k + off;
       const v = rhs[k] - qp[kk];
       rp[kk] = v;
+      bp[kk] = v;
       rr += v * v;
     }
     return Math.sqrt(rr) / scale;
@@ -529,6 +664,7 @@ export function solve(
       rr -= rhs[k] * rhs[k];
       rp[k + off] = 0;
     }
+    bp.set(rp);
     rel = Math.sqrt(Math.max(rr, 0)) / scale;
   } else {
     rel = trueResidual();
@@ -537,17 +673,24 @@ export function solve(
   const rel0 = rel;
   let it = 0;
   let converged = rel <= tolerance;
-  let rz = 0;
+  let pAp = 0;
   let restart = true;
   while (!converged && it < maxIterations) {
     if (isCancelled !== undefined && isCancelled()) throw new SolveCancelledError();
     applyPreconditioner(h);
-    const rzNew = dotPadded(rp, zp, off, size);
-    const beta = restart ? 0 : rzNew / rz;
+    let rz: number, beta: number;
+    if (restart) {
+      rz = dotPadded(zp, rp, off, size);
+      beta = 0;
+    } else {
+      // qp still holds A p of the previous direction
+      dotPair(zp, rp, qp, off, size);
+      rz = pair[0];
+      beta = -pair[1] / pAp;
+    }
     restart = false;
-    rz = rzNew;
     // p = z + beta p and q = A p in one pass
-    const pAp = updateMatvecDot(lv0, zp, beta, pp, qp);
+    pAp = updateMatvecDot(h, zp, beta, pp, qp);
     if (!(pAp > 0)) break; // breakdown: the residual is zero to round-off or A is singular here
     const alpha = rz / pAp;
     let rr = 0, rr1 = 0;
@@ -559,6 +702,8 @@ export function solve(
       const v1 = rp[k + 1] - alpha * qp[k + 1];
       rp[k] = v0;
       rp[k + 1] = v1;
+      bp[k] = v0;
+      bp[k + 1] = v1;
       rr += v0 * v0;
       rr1 += v1 * v1;
     }
@@ -566,6 +711,7 @@ export function solve(
       xp[k] += alpha * pp[k];
       const v = rp[k] - alpha * qp[k];
       rp[k] = v;
+      bp[k] = v;
       rr += v * v;
     }
     rr += rr1;

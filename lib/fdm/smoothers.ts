@@ -16,26 +16,38 @@
  */
 
 /** The arrays of one grid level (all padded, see above). */
+/**
+ * Storage of a level: Float32Array in the default single-precision hierarchy (half the memory
+ * traffic per sweep), Float64Array when `precision: 'double'` is asked for. Arithmetic is
+ * always in double precision; only stored values are rounded.
+ */
+export type Real = Float32Array | Float64Array;
+
+/** A new zeroed array of the same element type as `like`. */
+export function realLike(like: Real, length: number): Real {
+  return like instanceof Float32Array ? new Float32Array(length) : new Float64Array(length);
+}
+
 export interface SweepLevel {
   nx: number;
   ny: number;
   /** Offset of node 0 in every array. */
   off: number;
-  c: Float64Array;
-  w: Float64Array;
-  s: Float64Array;
+  c: Real;
+  w: Real;
+  s: Real;
   /** Diagonal couplings (null on the 5-point fine level). */
-  sw: Float64Array | null;
-  se: Float64Array | null;
+  sw: Real | null;
+  se: Real | null;
   /** Thomas factors of the x-lines: 1/pivot and e/pivot. */
-  xInv: Float64Array;
-  xU: Float64Array;
+  xInv: Real;
+  xU: Real;
   /** Thomas factors of the y-lines: 1/pivot and n/pivot. */
-  yInv: Float64Array;
-  yU: Float64Array;
+  yInv: Real;
+  yU: Real;
   /** Work vectors: iterate (correction) and right-hand side. */
-  x: Float64Array;
-  b: Float64Array;
+  x: Real;
+  b: Real;
 }
 
 /**
@@ -123,7 +135,7 @@ function sweepRowQuad5(lv: SweepLevel, j: number, zeroGuess: boolean): void {
 /** Line solves of rows j1 and j2 (j2 = −1: only j1); the rows must not be neighbours. Writes lv.x. */
 function sweepRowPair(lv: SweepLevel, j1: number, j2: number, zeroGuess: boolean): void {
   const { nx, off, w, s, xInv: inv, xU: u, x, b } = lv;
-  const sw = lv.sw, se = lv.se as Float64Array;
+  const sw = lv.sw, se = lv.se as Real;
   const r1 = off + j1 * nx;
   const d = j2 >= 0 ? (j2 - j1) * nx : 0; // second row = first + d
   const two = j2 >= 0;
@@ -200,7 +212,7 @@ function sweepRowPair(lv: SweepLevel, j1: number, j2: number, zeroGuess: boolean
  */
 export function sweepColumns(lv: SweepLevel, parity: number): void {
   const { nx, ny, off, w, s, yInv: inv, yU: u, x, b } = lv;
-  const sw = lv.sw, se = lv.se as Float64Array;
+  const sw = lv.sw, se = lv.se as Real;
   // forward elimination; x holds the intermediate values of this colour's columns
   for (let j = 0; j < ny; j++) {
     const r = off + j * nx;
@@ -236,14 +248,14 @@ export function residualAt(lv: SweepLevel, kk: number): number {
   const { nx, c, w, s, x, b } = lv;
   let v = b[kk] - c[kk] * x[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
   if (lv.sw !== null) {
-    const sw = lv.sw, se = lv.se as Float64Array;
+    const sw = lv.sw, se = lv.se as Real;
     v += sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
   }
   return v;
 }
 
 /** r = b − A x on the whole level (padded). Writes r inside the grid. */
-export function residualFull(lv: SweepLevel, r: Float64Array): void {
+export function residualFull(lv: SweepLevel, r: Real): void {
   const { nx, ny, off } = lv;
   for (let kk = off; kk < off + nx * ny; kk++) r[kk] = residualAt(lv, kk);
 }
@@ -259,7 +271,7 @@ export function residualFull(lv: SweepLevel, r: Float64Array): void {
  * Point smoothing suits levels whose cells are nearly square; stretched cells need the line
  * sweeps above.
  */
-export function sweepRedBlack(lv: SweepLevel, cInv: Float64Array, redFirst: boolean, zeroGuess: boolean): void {
+export function sweepRedBlack(lv: SweepLevel, cInv: Real, redFirst: boolean, zeroGuess: boolean): void {
   const { nx, ny, off, w, s, x, b } = lv;
   const first = redFirst ? 0 : 1;
   const relax = (j: number, colour: number, zero: boolean) => {
@@ -283,9 +295,57 @@ export function sweepRedBlack(lv: SweepLevel, cInv: Float64Array, redFirst: bool
 }
 
 /** 1/c on a level (0 where c is not positive), padded like the level. */
-export function inverseDiagonal(lv: SweepLevel): Float64Array {
+export function inverseDiagonal(lv: SweepLevel): Real {
   const { nx, ny, off, c } = lv;
-  const out = new Float64Array(c.length);
+  const out = realLike(c, c.length);
   for (let kk = off; kk < off + nx * ny; kk++) out[kk] = c[kk] > 0 ? 1 / c[kk] : 0;
   return out;
+}
+
+/**
+ * One lexicographic point Gauss–Seidel sweep on a 5- or 9-point level: `forward` visits the
+ * nodes in increasing index order, otherwise in decreasing order (the adjoint: a forward
+ * pre-sweep and a backward post-sweep keep the cycle symmetric). With `zeroGuess` (forward
+ * only) x is taken as zero on entry: only the already updated lower neighbours contribute and
+ * the old content of x is never read. `cInv` holds 1/c (padded). One pass over memory; a
+ * cheap smoother for coarse levels whose couplings are nearly isotropic.
+ * Writes lv.x inside the grid.
+ */
+export function sweepGaussSeidel(lv: SweepLevel, cInv: Real, forward: boolean, zeroGuess: boolean): void {
+  const { nx, ny, off, w, s, x, b } = lv;
+  const sw = lv.sw, se = lv.se;
+  const end = off + nx * ny;
+  if (sw === null || se === null) {
+    if (forward && zeroGuess) {
+      for (let kk = off; kk < end; kk++) x[kk] = (b[kk] + w[kk] * x[kk - 1] + s[kk] * x[kk - nx]) * cInv[kk];
+    } else if (forward) {
+      for (let kk = off; kk < end; kk++) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+      }
+    } else {
+      for (let kk = end - 1; kk >= off; kk--) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+      }
+    }
+    return;
+  }
+  if (forward && zeroGuess) {
+    for (let kk = off; kk < end; kk++) {
+      x[kk] = (b[kk] + w[kk] * x[kk - 1] + s[kk] * x[kk - nx] + sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1]) * cInv[kk];
+    }
+  } else if (forward) {
+    for (let kk = off; kk < end; kk++) {
+      const f =
+        b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] +
+        sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+      x[kk] = f * cInv[kk];
+    }
+  } else {
+    for (let kk = end - 1; kk >= off; kk--) {
+      const f =
+        b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] +
+        sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+      x[kk] = f * cInv[kk];
+    }
+  }
 }

@@ -18,7 +18,7 @@ describe('red–black point smoother kernels', () => {
   for (const [nx, ny] of sizes) {
     it(`one pass equals all red nodes then all black nodes (and the reverse), ${nx}×${ny}`, () => {
       const sys = hardSystem(nx, ny, { maxRatio: 5, robin: 0.2, ground: false });
-      const h = setupHierarchy(sys.op, { coarsestNodes: 4, fineSmoother: 'line' });
+      const h = setupHierarchy(sys.op, { coarsestNodes: 4, fineSmoother: 'line', precision: 'double' });
       const lv = h.levels[0];
       const inv = inverseDiagonal(lv);
       const { off } = lv;
@@ -62,7 +62,7 @@ describe('red–black point smoother kernels', () => {
 
     it(`fused red residual + restriction equals residual + Pᵀ after a red-first sweep, ${nx}×${ny}`, () => {
       const sys = hardSystem(nx, ny, { maxRatio: 3 });
-      const h = setupHierarchy(sys.op, { coarsestNodes: 4, fineSmoother: 'line' });
+      const h = setupHierarchy(sys.op, { coarsestNodes: 4, fineSmoother: 'line', precision: 'double' });
       const lv = h.levels[0], cl = h.levels[1], t = h.transfers[0];
       const { off } = lv;
       for (let k = 0; k < nx * ny; k++) lv.b[k + off] = Math.sin(0.37 * k) + 0.2;
@@ -103,14 +103,14 @@ describe('multigrid with red–black point smoothing on the finest level', () =>
     ['jumps + strips + block 65×49', hardSystem(65, 49)],
   ] as const) {
     it(`the preconditioner stays symmetric and positive definite: ${name}`, () => {
-      const h = setupHierarchy(sys.op, { coarsestNodes: 16, fineSmoother: 'point' });
+      const h = setupHierarchy(sys.op, { coarsestNodes: 16, fineSmoother: 'point', precision: 'double' });
       expect(h.pointInv).not.toBeNull();
       const size = sys.rhs.length, off = h.levels[0].off;
       const apply = (v: Float64Array): Float64Array => {
         h.levels[0].b.fill(0);
         h.levels[0].b.set(v, off);
         applyPreconditioner(h);
-        return h.levels[0].x.slice(off, off + size);
+        return Float64Array.from(h.levels[0].x.subarray(off, off + size));
       };
       const dot = (a: Float64Array, b: Float64Array) => a.reduce((s, v, k) => s + v * b[k], 0);
       for (let trial = 0; trial < 3; trial++) {
