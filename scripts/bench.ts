@@ -81,6 +81,35 @@ function fmt(v: unknown): string {
 
 const SOLVER_FIELDS = ['unknowns', 'setupMs', 'solveMs', 'matvecMs', 'workUnits', 'iterations', 'relResidual'] as const;
 
+const LOAD_FIELDS = ['rps', 'p50Ms', 'p99Ms', 'errors'] as const;
+
+/** The load cases (scripts/bench/cases/load-*.ts): one row each, and what the figures mean. */
+function printLoadTable(rows: CaseResult[], out: (s?: string) => void): void {
+  const cols: [string, string][] = [
+    ['case', 'name'], ['conn.', 'connections'], ['s', 'durationS'], ['requests', 'requests'], ['req/s', 'rps'],
+    ['p50 ms', 'p50Ms'], ['p90 ms', 'p90Ms'], ['p99 ms', 'p99Ms'], ['max ms', 'maxMs'], ['errors', 'errors'],
+    ['non-2xx', 'non2xx'], ['timeouts', 'timeouts'], ['load avg', 'loadAvgStart'],
+  ];
+  const cells = rows.map((r) => cols.map(([, k]) => (r[k] === undefined ? '-' : fmt(r[k]))));
+  const widths = cols.map(([h], i) => Math.max(h.length, ...cells.map((c) => c[i]!.length)));
+  const line = (c: string[]) => c.map((x, i) => (i === 0 ? x.padEnd(widths[i]!) : x.padStart(widths[i]!))).join('  ');
+  out(line(cols.map(([h]) => h)));
+  out(widths.map((w) => '-'.repeat(w)).join('  '));
+  for (const c of cells) out(line(c));
+  for (const r of rows) {
+    const other = r.statusOther as Record<string, number> | undefined;
+    if (other && Object.keys(other).length) out(`  ${r.name}: answers other than 2xx: ${Object.entries(other).map(([k, v]) => `${k} ×${v}`).join(', ')}`);
+    if (typeof r.lostWrites === 'number') out(`  ${r.name}: ${fmt(r.savedRevisions)} revisions saved, ${fmt(r.lostWrites)} acknowledged saves missing afterwards`);
+  }
+  const read = rows.find((r) => r.name === 'load-read-solves');
+  if (read) out(`${(read.p99Ms as number) < 200 && read.errors === 0 ? 'ok  ' : 'MISS'} reads: p99 ${fmt(read.p99Ms)} ms with ${fmt(read.errors)} errors (target: p99 under 200 ms, zero errors; reported, not asserted)`);
+  out('Load cases: a production build (next start, loopback, fresh demo data) under autocannon, one signed-in user per');
+  out('connection, pipelining 1. Latencies are of 2xx answers; errors = non-2xx + connection errors + timeouts (10 s).');
+  out('"load avg" is the machine\'s 1-minute load average when the run started: other work on the 2 cores slows the server.');
+  out('BENCH_LOAD_SECONDS=5 shortens the runs (default 30 s); see DEVELOPERS.md, Profiling.');
+  out();
+}
+
 function printTable(results: CaseResult[], wallMs: number): void {
   const out = (s = '') => process.stdout.write(s + '\n');
   const load = loadavg().map((v) => v.toFixed(2)).join(' ');
@@ -108,8 +137,10 @@ function printTable(results: CaseResult[], wallMs: number): void {
   }
   out('The "cpu:" columns are process CPU times (ms) of the same runs: on a loaded machine they are closer to what an idle one shows.');
   out();
+  const loadRows = results.filter((r) => LOAD_FIELDS.every((f) => typeof r[f] === 'number'));
+  if (loadRows.length) printLoadTable(loadRows, out);
   for (const r of results) {
-    if (solverRows.includes(r)) continue;
+    if (solverRows.includes(r) || loadRows.includes(r)) continue;
     const rest = Object.entries(r).filter(([k]) => k !== 'name' && !k.startsWith('_')).map(([k, v]) => `${k}=${fmt(v)}`).join('  ');
     out(`${r.name}: ${rest}`);
   }
