@@ -9,7 +9,8 @@
  * Outcomes: 'render' (the component returns), 'login' (redirect to /login), 'redirect'
  * (elsewhere, never to another team's workspace), 'not_found' (Next's not-found page, so
  * another workspace's ids are not revealed). tests/integration/page-roles.test.ts calls each
- * page's default export as each actor, and fails when a page or layout reading data on the
+ * page's default export as each actor (a rendered tree and a redirect must carry nothing of a
+ * workspace the caller is not in), and fails when a page or layout reading data on the
  * server is not listed here.
  */
 import type { World } from './helpers/fixtures';
@@ -25,6 +26,8 @@ export interface PageRow {
   /** Another workspace's object under workspace A's id: not_found for an owner of A. */
   foreignParams?: (w: World) => Record<string, string>;
   searchParams?: Record<string, string>;
+  /** Query strings naming workspace B's objects, opened by an owner of A: the page renders without B's data. */
+  crossQueries?: { what: string; searchParams: (w: World) => Record<string, string> }[];
   /** Set EDGEFIELD_DEMO=1 for the call (demo-only pages). */
   demo?: boolean;
   note?: string;
@@ -41,7 +44,15 @@ export const PAGES: PageRow[] = [
   { file: `${W}/activity/page.tsx`, expect: MEMBER, params: (w) => ({ workspaceId: w.wsA }) },
   { file: `${W}/notifications/page.tsx`, expect: MEMBER, params: (w) => ({ workspaceId: w.wsA }) },
   { file: `${W}/settings/page.tsx`, expect: MEMBER, params: (w) => ({ workspaceId: w.wsA }) },
-  { file: `${W}/solves/page.tsx`, expect: MEMBER, params: (w) => ({ workspaceId: w.wsA }) },
+  {
+    file: `${W}/solves/page.tsx`,
+    expect: MEMBER,
+    params: (w) => ({ workspaceId: w.wsA }),
+    crossQueries: [
+      { what: 'a section of B as filter', searchParams: (w) => ({ section: w.sectionB }) },
+      { what: 'a member of B as author filter', searchParams: (w) => ({ author: w.users.outsider.id }) },
+    ],
+  },
   {
     file: `${W}/sections/[sectionId]/page.tsx`,
     expect: MEMBER,
@@ -52,6 +63,7 @@ export const PAGES: PageRow[] = [
     file: `${W}/sections/[sectionId]/history/page.tsx`,
     expect: MEMBER,
     params: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionA }),
+    crossQueries: [{ what: 'revisions of B to compare', searchParams: (w) => ({ a: w.revisionB, b: w.revisionB }) }],
     foreignParams: (w) => ({ workspaceId: w.wsA, sectionId: w.sectionB }),
   },
   {
