@@ -13,6 +13,7 @@
  */
 import path from 'node:path';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
+import { byteaHexParser } from './pglite-parsers';
 import * as schema from './schema';
 import { acquireDataDirLock, getDataDir, type DataDirLock } from '@/lib/server/data-dir';
 
@@ -96,9 +97,11 @@ export async function openPglite(dataDir: string, opts: OpenPgliteOptions = {}):
   let lock: DataDirLock | undefined;
   if (opts.lockDir) lock = acquireDataDirLock(opts.lockDir);
   try {
-    const { PGlite } = await import('@electric-sql/pglite');
+    const { PGlite, types } = await import('@electric-sql/pglite');
     const { drizzle } = await import('drizzle-orm/pglite');
-    const client = new PGlite(dataDir, opts.loadDataDir ? { loadDataDir: opts.loadDataDir } : {});
+    // PGlite's own bytea parser costs ~1 µs per byte on the server's only thread (db/pglite-parsers.ts).
+    const parsers = { [types.BYTEA]: byteaHexParser(types.parsers[types.BYTEA]!) };
+    const client = new PGlite(dataDir, { ...(opts.loadDataDir ? { loadDataDir: opts.loadDataDir } : {}), parsers });
     await client.waitReady;
     const db = drizzle({ client, schema }) as unknown as Db;
     if (opts.migrate !== false) {
