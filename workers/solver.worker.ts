@@ -1,6 +1,8 @@
 /// <reference lib="webworker" />
 /**
  * The solver worker: a thin adapter that runs solveSection (lib/engine) off the main thread.
+ * It checks the request's envelope (job id, settings, cancel flag); solveSection checks the
+ * section and the tolerance. Every failure comes back as an outcome, never as a dead worker.
  * Progress streams back through a Comlink.proxy callback (throttled, stage changes always
  * sent); the field arrays are transferred, not copied. Cancellation: a SharedArrayBuffer flag
  * when the page is cross-origin isolated, otherwise the page terminates this worker.
@@ -9,9 +11,25 @@ import '@/lib/client/zod-no-eval'; // first: no eval probe under the CSP
 import * as Comlink from 'comlink';
 import { solveSection } from '@/lib/engine/solve-section';
 import { SolveCancelledError } from '@/lib/fdm/types';
+import { MESH_PRESETS } from '@/lib/section/schema';
 import { fieldBuffers, type SolveOutcome, type SolveRequest, type SolverWorkerApi, type WorkerProgress } from './protocol';
 
 const PROGRESS_INTERVAL_MS = 60;
+const PRESETS: readonly string[] = MESH_PRESETS;
+
+/** What is wrong with a request's envelope (the section itself is checked by solveSection), or null. */
+function requestProblem(req: unknown): string | null {
+  if (!req || typeof req !== 'object') return 'the request is not an object';
+  const r = req as Partial<SolveRequest>;
+  if (!Number.isSafeInteger(r.jobId)) return 'the request has no job id';
+  const s = r.settings as Partial<SolveRequest['settings']> | undefined;
+  if (!s || typeof s !== 'object') return 'the request has no settings';
+  if (!PRESETS.includes(s.preset as string)) return `settings.preset must be one of ${PRESETS.join(', ')} (got ${JSON.stringify(s.preset)})`;
+  if (typeof s.tolerance !== 'number') return `settings.tolerance must be a number (got ${JSON.stringify(s.tolerance)})`;
+  const shared = typeof SharedArrayBuffer !== 'undefined' && r.cancelFlag instanceof SharedArrayBuffer;
+  if (r.cancelFlag !== undefined && !(shared && r.cancelFlag.byteLength >= 4)) return 'cancelFlag must be a SharedArrayBuffer of at least 4 bytes';
+  return null;
+}
 
 const api: SolverWorkerApi = {
   async ping() {
@@ -19,6 +37,11 @@ const api: SolverWorkerApi = {
   },
   async solve(req: SolveRequest, onProgress: (p: WorkerProgress) => void): Promise<SolveOutcome> {
     const t0 = performance.now();
+    const bad = requestProblem(req);
+    if (bad !== null) {
+      const jobId = req && typeof req === 'object' && Number.isSafeInteger(req.jobId) ? req.jobId : -1;
+      return { ok: false, jobId, cancelled: false, message: `bad solve request: ${bad}` };
+    }
     const flag = req.cancelFlag ? new Int32Array(req.cancelFlag) : null;
     let lastSent = 0;
     let lastStage = '';

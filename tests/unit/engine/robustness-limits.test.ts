@@ -107,6 +107,18 @@ describe('node limit', () => {
   });
 });
 
+describe('tolerance of the linear solves', () => {
+  it('outside 1e-14 … 1e-4 (NaN, 0, 1e-300, 1e-3, 2) is refused before any solving', () => {
+    for (const tolerance of [Number.NaN, 0, 1e-300, 1e-3, 2]) {
+      let stages = 0;
+      expect(() => solveSection(traces({ preset: 'quick' }), { tolerance, onProgress: () => stages++ })).toThrow(
+        new RangeError(`the tolerance must be a number from 1e-14 to 0.0001 (got ${tolerance})`),
+      );
+      expect(stages).toBe(0);
+    }
+  });
+});
+
 describe('assertFiniteResult', () => {
   const result = () => solveSection(traces({ preset: 'quick' })).result;
   it('passes a real result and names the first value that is not finite', () => {

@@ -165,6 +165,26 @@ describe('solver worker (workers/solver.worker.ts in a Node worker thread)', () 
     await expectGoodSolve(twinWires, 'quick');
   });
 
+  it('malformed requests (no settings, an unknown preset, a tolerance out of range, a bad cancel flag) are refused, and the worker goes on', async () => {
+    const noop = Comlink.proxy(() => {});
+    const settings = { preset: 'quick', tolerance: DEFAULT_TOLERANCE };
+    const cases: [unknown, string][] = [
+      [null, 'bad solve request: the request is not an object'],
+      [{ jobId: 7, section: twinWires }, 'bad solve request: the request has no settings'],
+      [{ jobId: 7, section: twinWires, settings: { ...settings, preset: 'fast' } }, 'bad solve request: settings.preset must be one of quick, standard, precise (got "fast")'],
+      [{ jobId: 7, section: twinWires, settings: { ...settings, tolerance: '1e-10' } }, 'bad solve request: settings.tolerance must be a number (got "1e-10")'],
+      [{ jobId: 7, section: twinWires, settings, cancelFlag: new ArrayBuffer(4) }, 'bad solve request: cancelFlag must be a SharedArrayBuffer of at least 4 bytes'],
+      // a loose tolerance would report values off by more than their error estimate (lib/engine/solve-section.ts)
+      [{ jobId: 7, section: twinWires, settings: { ...settings, tolerance: 0.5 } }, 'the tolerance must be a number from 1e-14 to 0.0001 (got 0.5)'],
+      [{ jobId: 7, section: twinWires, settings: { ...settings, tolerance: Number.NaN } }, 'the tolerance must be a number from 1e-14 to 0.0001 (got NaN)'],
+    ];
+    for (const [req, message] of cases) {
+      const out = await api.solve(req as SolveRequest, noop);
+      expect(out).toEqual({ ok: false, jobId: req === null ? -1 : 7, cancelled: false, message });
+    }
+    await expectGoodSolve(twinWires, 'quick');
+  });
+
   it('requests that are not sections (null, a string, NaN coordinates) are refused, and the worker goes on', async () => {
     for (const bad of [null, 'edgefield', { ...twinWires, shapes: [{ ...twinWires.shapes[0]!, cx: Number.NaN }, twinWires.shapes[1]!] }]) {
       const out = await post(bad, 'quick').done;
