@@ -212,3 +212,34 @@ export async function sqlIntegrity(handle: DbHandle, prefix: string): Promise<vo
         and not exists (select 1 from comments c where c.id = a.data->>'commentId')`,
   );
 }
+
+/**
+ * PostgreSQL's own consistency checks (the amcheck extension) on every table and B-tree index
+ * of the folder: heap pages and tuples are sound, and every row is in every index. Opens the
+ * folder with PGlite directly (the extension is loaded per instance); the caller holds no
+ * other handle on it.
+ */
+export async function amcheckAll(pgliteDir: string): Promise<{ tables: number; indexes: number }> {
+  const { PGlite } = await import('@electric-sql/pglite');
+  const { amcheck } = await import('@electric-sql/pglite/contrib/amcheck');
+  const pg = new PGlite(pgliteDir, { extensions: { amcheck } });
+  try {
+    await pg.exec('create extension if not exists amcheck');
+    const heap = await pg.query<{ relname: string; blkno: number; msg: string }>(
+      `select c.relname, v.blkno, v.msg from pg_class c, lateral verify_heapam(c.oid) v
+        where c.relnamespace = 'public'::regnamespace and c.relkind = 'r'`,
+    );
+    expect(heap.rows, 'heap corruption found by verify_heapam').toEqual([]);
+    const idx = await pg.query<{ relname: string }>(
+      `select c.relname, bt_index_check(c.oid, true) from pg_index i
+         join pg_class c on c.oid = i.indexrelid join pg_am a on a.oid = c.relam
+        where a.amname = 'btree' and c.relnamespace = 'public'::regnamespace`,
+    );
+    const tables = await pg.query<{ n: number }>(
+      `select count(*)::int as n from pg_class where relnamespace = 'public'::regnamespace and relkind = 'r'`,
+    );
+    return { tables: tables.rows[0]!.n, indexes: idx.rows.length };
+  } finally {
+    await pg.close();
+  }
+}

@@ -8,7 +8,8 @@
  *   4. every acknowledged write is there and intact, every unacknowledged one wholly there
  *      or absent, revision numbers without gaps (checks.ts verifyRound).
  * Then a clean shutdown with writes in flight: SIGTERM, exit code 0, the lock released, and
- * the folder opens without the stale-lock path; the SQL integrity checks run on it.
+ * the folder opens without the stale-lock path; the SQL integrity checks and PostgreSQL's
+ * amcheck (heap and B-tree indexes) run on it.
  *
  * Run: `npx vitest run -c vitest.durability.config.mts` after building (scripts/test.sh).
  * DURABILITY_ROUNDS (default 20) sets the number of rounds.
@@ -23,7 +24,7 @@ import { workspaces } from '@/db/schema';
 import { DEMO_ACCOUNTS, DEMO_WORKSPACE_NAME } from '@/lib/demo/accounts';
 import { seedDemo } from '@/lib/demo/seed';
 import { templateBlob } from '../integration/helpers/db';
-import { sqlIntegrity, verifyRound, type RoundSummary } from './checks';
+import { amcheckAll, sqlIntegrity, verifyRound, type RoundSummary } from './checks';
 import { getJson, requireBuild, signIn, startServer, type Server } from './harness';
 import { createSection, newLedger, runWriters, solvePipeline, tally, type Ledger } from './workload';
 
@@ -166,6 +167,11 @@ describe('kill-and-restart', () => {
     } finally {
       await h.close();
     }
+    // PostgreSQL's own checks: sound heap pages, every row in every index (bt_index_check
+    // raises an error on a broken index, which fails the test).
+    const checked = await amcheckAll(path.join(dataDir, 'pglite'));
+    expect(checked.tables).toBeGreaterThanOrEqual(18);
+    expect(checked.indexes).toBeGreaterThan(checked.tables);
     console.log(`SIGTERM round: ${last.counts.acked}/${last.counts.sent} writes acknowledged before the shutdown`);
   }, 900_000);
 });
