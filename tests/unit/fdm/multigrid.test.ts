@@ -199,8 +199,8 @@ describe('the preconditioner', () => {
     ['microstrip 64², V-cycle', uniformMicrostrip(64), 'V'],
     ['no ground, Robin edges, graded 300', hardSystem(60, 70, { robin: 0.01, ground: false, maxRatio: 300 }), 'V'],
   ] as const) {
-    it(`is symmetric to single-precision round-off and positive definite (default single storage): ${name}`, () => {
-      const h = setupHierarchy(sys.op, { coarsestNodes: 16, cycle });
+    it(`is symmetric to single-precision round-off and positive definite (single storage): ${name}`, () => {
+      const h = setupHierarchy(sys.op, { coarsestNodes: 16, cycle, precision: 'single' });
       expect(h.precision).toBe('single');
       expect(h.levels[1].c).toBeInstanceOf(Float32Array);
       const size = sys.rhs.length, off = h.levels[0].off;
@@ -222,6 +222,17 @@ describe('the preconditioner', () => {
       }
     });
   }
+
+  it("'auto' precision: single storage on a uniform grid, double on stretched cells", () => {
+    const uni = setupHierarchy(uniformMicrostrip(129).op);
+    expect(uni.precision).toBe('single');
+    expect(uni.levels[0].x).toBeInstanceOf(Float32Array);
+    const str = setupHierarchy(hardSystem(97, 81, { maxRatio: 100 }).op);
+    expect(str.precision).toBe('double');
+    expect(str.levels[1].c).toBeInstanceOf(Float64Array);
+    // a grid solved directly (no coarse levels) stays double whatever is asked
+    expect(setupHierarchy(uniformMicrostrip(20).op, { precision: 'single' }).precision).toBe('double');
+  });
 
   it('uses restriction = transpose of interpolation and Galerkin coarse operators Pᵀ A P', () => {
     const sys = hardSystem(23, 18, { maxRatio: 50 });
