@@ -176,6 +176,14 @@ function printTable(results: CaseResult[], wallMs: number): void {
       `${(ref.solveS * 1000 / ref.matvecMs).toFixed(0)} work units; ours: ${fmt(anchor.iterations)} iterations, ${fmt(anchor.workUnits)} work units`);
   }
   if (std) out(`     standard preset microstrip: ${fmt(std.unknowns)} nodes on the finest mesh; every linear solve of the pipeline together took ${fmt(std.workUnits)} work units`);
+  const under1 = results.find((r) => r.name === 'solver-standard-under-1s' && typeof r.coaxMs === 'number');
+  if (under1) {
+    const c = under1.coaxMs as number, m = under1.microstripMs as number;
+    const accurate = (under1.coaxError as number) <= 1e-3 && (under1.coaxEstimate as number) <= 1e-3 && (under1.microstripEstimate as number) <= 1e-3;
+    out(`${c < 1000 && m < 1000 && accurate ? 'PASS' : 'MISS'} standard preset, whole pipeline (warm, median of 3, wall-clock): coax ${fmt(c)} ms, microstrip ${fmt(m)} ms (bar: < 1000 ms each, within 0.1%)` +
+      `; on CPU time ${fmt(under1.coaxCpuMs)} ms and ${fmt(under1.microstripCpuMs)} ms; first run in this process ${fmt(under1.coaxColdMs)} and ${fmt(under1.microstripColdMs)} ms`);
+    out(`     coax error against the exact 2πε/ln(b/a): ${fmt(under1.coaxError)} (estimate ${fmt(under1.coaxEstimate)}); microstrip estimated error ${fmt(under1.microstripEstimate)}`);
+  }
   const skipped = results.filter((r) => typeof r.skipped === 'string');
   for (const r of skipped) out(`skipped ${r.name}: ${r.skipped}`);
   const failed = results.filter((r) => typeof r.error === 'string');
