@@ -161,8 +161,8 @@ export async function openPostgres(url: string, opts: { migrate?: boolean } = {}
   };
 }
 
-/** How long a shutdown waits for the HTTP server to finish the requests in flight. */
-const SHUTDOWN_GRACE_MS = Number(process.env.EDGEFIELD_SHUTDOWN_GRACE_MS || 10_000);
+/** How long a shutdown waits for the HTTP server to finish the requests in flight (below `docker stop`'s 10 s). */
+const SHUTDOWN_GRACE_MS = Number(process.env.EDGEFIELD_SHUTDOWN_GRACE_MS || 5_000);
 
 /**
  * Clean shutdown on SIGTERM / SIGINT: stop accepting, let the requests in flight finish, close
