@@ -40,7 +40,7 @@ export const MAX_SIZE_M = 1e6;
 export const MAX_FINEST_RATIO = 1e4;
 /**
  * Largest relative permittivity accepted. Far above any insulator in use (ceramic capacitor
- * dielectrics reach about 1e4); beyond about 1e100 the solver's residual norms overflow.
+ * dielectrics reach about 1e4); at 1e300 the solver's residual norms overflowed (NaN).
  */
 export const MAX_EPS_R = 1e6;
 /** Short circuits reported at most (one is enough to block a solve). */
