@@ -25,6 +25,7 @@ vi.mock('@/lib/server/session', async () => {
 import { setDbForTesting, type DbHandle } from '@/db/client';
 import { createTestDb } from './helpers/db';
 import { buildWorld, type World } from './helpers/fixtures';
+import { notTheirs, workspaceMarkers } from './helpers/markers';
 import { actorUser, addShareHolders, type ShareHolders } from './helpers/share-holders';
 import { PAGES, type PageOutcome, type PageRow } from './pages-table';
 import { ACTORS, ACTOR_LABEL, type Actor } from './routes-table';
@@ -97,18 +98,9 @@ async function open(
   }
 }
 
-/** Ids, names and addresses of each workspace: no page may hand them to someone outside it. */
-function markers(ws: 'A' | 'B'): string[] {
-  return ws === 'A'
-    ? [w.wsA, w.sectionA, w.revisionA, w.solveA, w.fileA, w.invitationA, w.shareLinkA, 'Workspace A', 'Section in A', w.users.owner.email, w.users.editor.email, w.users.viewer.email, 'invited-a@']
-    : [w.wsB, w.sectionB, w.revisionB, w.solveB, w.fileB, w.invitationB, w.shareLinkB, 'Workspace B', 'Section in B', w.users.outsider.email, 'invited-b@'];
-}
-
 /** Markers of the workspaces an actor is not in (a redirect or a rendered tree must hold none). */
 function foreignMarkers(actor: Actor): string[] {
-  if (actor === 'viewer' || actor === 'editor' || actor === 'owner') return markers('B');
-  if (actor === 'otherWorkspace') return markers('A');
-  return [...markers('A'), ...markers('B')];
+  return notTheirs(actor).flatMap((ws) => workspaceMarkers(w, ws));
 }
 
 describe.each(PAGES.map((r) => [`app/${r.file}`, r] as const))('%s', (name, row) => {
@@ -132,7 +124,7 @@ describe.each(PAGES.map((r) => [`app/${r.file}`, r] as const))('%s', (name, row)
       expect(r.outcome).toBe('render');
       // The caller's own query may be echoed back; nothing else of B may appear.
       const sent = new Set(Object.values(q));
-      for (const m of markers('B').filter((x) => !sent.has(x))) expect(r.detail.includes(m), `owner of A was handed "${m}"`).toBe(false);
+      for (const m of workspaceMarkers(w, 'B').filter((x) => !sent.has(x))) expect(r.detail.includes(m), `owner of A was handed "${m}"`).toBe(false);
     });
   }
   if (row.demo) {

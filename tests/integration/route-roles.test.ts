@@ -29,6 +29,7 @@ vi.mock('@/lib/server/mail', async (importOriginal) => ({
 import { setDbForTesting, type DbHandle } from '@/db/client';
 import { setSolveField } from '@/db/queries/solves';
 import { snapshotTables } from './helpers/db-snapshot';
+import { notTheirs, workspaceMarkers } from './helpers/markers';
 import { createTestDb } from './helpers/db';
 import { buildWorld, type World } from './helpers/fixtures';
 import { actorUser, addShareHolders, setPublicLinks, type ShareHolders } from './helpers/share-holders';
@@ -123,22 +124,8 @@ function caller(actor: Actor) {
   return { user: actorUser(actor, w, holders), share: actor === 'shareHolder' || actor === 'shareHolderSignedIn' };
 }
 
-/** Ids, names and addresses of each workspace: none may reach someone outside it. */
-function markers(ws: 'A' | 'B'): string[] {
-  return ws === 'A'
-    ? [w.wsA, w.sectionA, w.revisionA, w.solveA, w.fileA, w.invitationA, w.shareLinkA, 'Workspace A', 'Section in A', w.users.owner.email, w.users.editor.email, w.users.viewer.email, 'invited-a@']
-    : [w.wsB, w.sectionB, w.revisionB, w.solveB, w.fileB, w.invitationB, w.shareLinkB, 'Workspace B', 'Section in B', w.users.outsider.email, 'invited-b@'];
-}
-
-/** The workspaces whose data an actor must never receive. */
-function notTheirs(actor: Actor): ('A' | 'B')[] {
-  if (actor === 'viewer' || actor === 'editor' || actor === 'owner') return ['B'];
-  if (actor === 'otherWorkspace') return ['A'];
-  return ['A', 'B'];
-}
-
 function expectNoMarkers(text: string, wss: ('A' | 'B')[], who: string) {
-  for (const ws of wss) for (const m of markers(ws)) expect(text.includes(m), `${who} received "${m}" of workspace ${ws}`).toBe(false);
+  for (const ws of wss) for (const m of workspaceMarkers(w, ws)) expect(text.includes(m), `${who} received "${m}" of workspace ${ws}`).toBe(false);
 }
 
 async function callAs(row: RouteRow, actor: Actor, opts: { withToken?: boolean } = {}) {
