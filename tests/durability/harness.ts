@@ -172,3 +172,38 @@ export async function signIn(email: string, password: string): Promise<string> {
   if (who.user?.email !== email) throw new Error(`the session does not show ${email}`);
   return cookie;
 }
+
+/**
+ * A request whose body is sent in two parts: the first now, the rest when `finish()` is
+ * called, so the request is in flight (headers and part of the body received) for as long
+ * as the caller likes.
+ */
+export function splitRequest(method: string, urlPath: string, body: Uint8Array, cookie: string, type = 'application/octet-stream') {
+  let req!: http.ClientRequest;
+  const reply = new Promise<Reply>((resolve, reject) => {
+    req = http.request(
+      `${origin}${urlPath}`,
+      {
+        method,
+        agent: false,
+        headers: { connection: 'close', origin, cookie, 'content-type': type, 'content-length': String(body.byteLength) },
+      },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('error', reject);
+        res.on('end', () => {
+          const b = Buffer.concat(chunks);
+          resolve({ status: res.statusCode ?? 0, headers: res.headers, body: b, json: <T>() => JSON.parse(b.toString('utf8')) as T });
+        });
+      },
+    );
+    req.on('error', reject);
+  });
+  const half = Math.floor(body.byteLength / 2);
+  req.write(body.subarray(0, half));
+  return {
+    reply,
+    finish: () => req.end(body.subarray(half)),
+  };
+}

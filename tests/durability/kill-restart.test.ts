@@ -25,8 +25,8 @@ import { DEMO_ACCOUNTS, DEMO_WORKSPACE_NAME } from '@/lib/demo/accounts';
 import { seedDemo } from '@/lib/demo/seed';
 import { templateBlob } from '../integration/helpers/db';
 import { amcheckAll, sqlIntegrity, verifyRound, type RoundSummary } from './checks';
-import { getJson, requireBuild, signIn, startServer, type Server } from './harness';
-import { createSection, newLedger, runWriters, solvePipeline, tally, type Ledger } from './workload';
+import { getJson, request, requireBuild, signIn, splitRequest, startServer, type Server } from './harness';
+import { createSection, newLedger, runWriters, solvePipeline, solvePipelineWithoutField, tally, type Ledger } from './workload';
 
 const ROUNDS = Number(process.env.DURABILITY_ROUNDS || 20);
 const owner = DEMO_ACCOUNTS.find((a) => a.role === 'owner')!;
@@ -115,14 +115,26 @@ describe('kill-and-restart', () => {
     // Earlier rounds are untouched by later kills.
     for (const l of ledgers.slice(0, -1)) await verifyRound(l, ws, cookie);
 
-    // Clean shutdown with writes in flight: SIGTERM lets them finish or fail, closes the
-    // database, releases the lock and exits 0.
+    // Clean shutdown with writes in flight: SIGTERM lets them finish, closes the database,
+    // releases the lock and exits 0. One upload is held half-sent across the signal: it must
+    // still be answered 201 and stored, while new connections are refused meanwhile.
     const last = newLedger(ROUNDS + 1);
     ledgers.push(last);
     const base = [await createSection(last, ws, cookie, `${last.prefix}base0`)];
+    const held = await solvePipelineWithoutField(last, ws, cookie, base[0]!);
+    const upload = splitRequest('PUT', `/api/workspaces/${ws}/solves/${held.id}/field`, held.field, cookie);
+    held.fieldState = 'unacked';
+    await new Promise((r) => setTimeout(r, 300)); // the server has the headers and half the body
     const writing = runWriters(last, ws, cookie, base.map((b) => b!));
     await new Promise((r) => setTimeout(r, 300));
     server.proc.kill('SIGTERM');
+    await new Promise((r) => setTimeout(r, 500));
+    expect(server.proc.exitCode, 'the server waits for the request in flight').toBe(null);
+    await expect(request('GET', '/api/auth/csrf'), 'new connections are refused while shutting down').rejects.toThrow();
+    upload.finish();
+    const uploaded = await upload.reply;
+    expect(uploaded.status, uploaded.body.toString('utf8')).toBe(201);
+    held.fieldState = 'acked';
     const ended = await server.exited;
     await writing;
     expect(ended, `exit after SIGTERM; server output:\n${server.output().slice(-3000)}`).toEqual({ code: 0, signal: null });
@@ -164,6 +176,9 @@ describe('kill-and-restart', () => {
         expect(await got('select id from comments where id in ($IDS)', want.comments)).toBe(want.comments.length);
         expect(await got('select id from solves where field is not null and id in ($IDS)', want.fields)).toBe(want.fields.length);
       }
+      // The upload held across SIGTERM is stored byte for byte.
+      const [stored] = (await db.execute(sql.raw(`select encode(field, 'hex') as h from solves where id = '${held.id}'`))).rows;
+      expect(stored?.h).toBe(Buffer.from(held.field).toString('hex'));
     } finally {
       await h.close();
     }

@@ -123,7 +123,7 @@ export async function createSection(l: Ledger, ws: string, cookie: string, name:
  * Store a solve of the newest acknowledged revision of `s` with its result, then its field
  * blob, then a comment on it (each step only after the one before was acknowledged).
  */
-export async function solvePipeline(l: Ledger, ws: string, cookie: string, s: SectionSent, tag: string): Promise<SolveSent> {
+export async function solvePipeline(l: Ledger, ws: string, cookie: string, s: SectionSent, tag: string, withField = true): Promise<SolveSent> {
   const revs = [...l.revisions.values()].filter((r) => r.sectionName === s.name && r.state === 'acked');
   const rev = revs.sort((a, b) => b.number! - a.number!)[0] ?? s.first;
   const seed = seedCounter++;
@@ -151,6 +151,7 @@ export async function solvePipeline(l: Ledger, ws: string, cookie: string, s: Se
   if (!r) return sv;
   sv.state = 'acked';
   sv.id = r.json<{ solve: { id: string } }>().solve.id;
+  if (!withField) return sv;
   sv.fieldState = 'unacked';
   const f = await send(l, 'PUT', `/api/workspaces/${ws}/solves/${sv.id}/field`, cookie, { body: sv.field });
   if (f) sv.fieldState = 'acked';
@@ -161,6 +162,13 @@ export async function solvePipeline(l: Ledger, ws: string, cookie: string, s: Se
     c.state = 'acked';
     c.id = cr.json<{ comment: { id: string } }>().comment.id;
   }
+  return sv;
+}
+
+/** An acknowledged solve whose field is not uploaded yet (the caller uploads it). */
+export async function solvePipelineWithoutField(l: Ledger, ws: string, cookie: string, s: SectionSent): Promise<SolveSent> {
+  const sv = await solvePipeline(l, ws, cookie, s, 'held', false);
+  if (sv.state !== 'acked') throw new Error(`the held solve was refused: ${l.refusals.join('; ')}`);
   return sv;
 }
 
