@@ -204,8 +204,15 @@ describe('the action table covers every server action', () => {
       );
       fs.writeFileSync(path.join(dir, 'app', 'x', 'plain.ts'), "export const note = \"files with 'use server' on top\";\n");
       fs.writeFileSync(path.join(dir, 'node_modules', 'pkg', 'index.js'), "'use server';\nexport async function hidden() {}\n");
+      fs.mkdirSync(path.join(dir, 'tests'), { recursive: true });
+      fs.writeFileSync(path.join(dir, 'tests', 'fake.ts'), "'use server';\nexport async function notShipped() {}\n");
+      fs.mkdirSync(path.join(dir, 'lib', 'data'), { recursive: true });
+      fs.writeFileSync(path.join(dir, 'lib', 'data', 'save.ts'), "// saves\n\"use server\"\nexport async function save() {}\n");
       const s = scanServerActions(dir);
-      expect(s.modules).toEqual([{ file: 'app/x/actions.ts', exports: ['a', 'b', 'd'] }]);
+      expect(s.modules).toEqual([
+        { file: 'app/x/actions.ts', exports: ['a', 'b', 'd'] },
+        { file: 'lib/data/save.ts', exports: ['save'] },
+      ]);
       expect(s.inline).toEqual([{ file: 'app/x/page.tsx', line: 3 }]);
       expect(isServerActionModule('"use client";\n')).toBe(false);
       expect(exportedNames("'use server';\nexport default async function go() {}\nexport * from './x';\n")).toEqual(['default', '*']);

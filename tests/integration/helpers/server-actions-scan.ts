@@ -18,18 +18,21 @@ export interface InlineDirective {
   line: number;
 }
 
-const SKIP_DIRS = new Set(['node_modules', '.git', 'tests', 'data', 'coverage', 'dist', 'out', 'test-results', 'playwright-report']);
+/** Skipped anywhere. */
+const SKIP_ANYWHERE = new Set(['node_modules', '.git']);
+/** Skipped at the top of the tree only (tests, the data folder, build and report output). */
+const SKIP_AT_ROOT = new Set(['tests', 'data', 'coverage', 'dist', 'out', 'test-results', 'playwright-report']);
 const SOURCE = /\.(?:ts|tsx|js|jsx|mjs|cjs|mts|cts)$/;
 const DIRECTIVE = /^(['"])use server\1/;
 const DIRECTIVE_LINE = /^\s*(['"])use server\1\s*;?\s*$/;
 
-/** Source files under `root`, skipping dependencies, build folders (.next*), data and tests. */
+/** Source files under `root`, skipping dependencies, build folders (.next*), and the top-level data and tests folders. */
 export function sourceFiles(root: string): string[] {
   const out: string[] = [];
   const walk = (dir: string) => {
     for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
       if (e.isDirectory()) {
-        if (SKIP_DIRS.has(e.name) || e.name.startsWith('.next')) continue;
+        if (SKIP_ANYWHERE.has(e.name) || e.name.startsWith('.next') || (dir === root && SKIP_AT_ROOT.has(e.name))) continue;
         walk(path.join(dir, e.name));
       } else if (SOURCE.test(e.name) && !e.name.endsWith('.d.ts')) {
         out.push(path.join(dir, e.name));
