@@ -5,13 +5,11 @@
  * exports (PDF report, CSV of every table, SPICE netlists). Every solve here runs in the
  * analysis worker (workers/analysis.worker.ts); nothing is saved.
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { proxy } from 'comlink';
+import { useEffect, useMemo, useState } from 'react';
 import type { Section } from '@/lib/section/schema';
 import type { SectionFields, SectionResult } from '@/lib/engine/types';
 import { resolveSection } from '@/lib/section/resolve';
-import { AnalysisClient } from '@/lib/client/analysis-client';
-import type { AnalyseOutcome, AnalysisSettings, PointProgress } from '@/workers/analysis-protocol';
+import type { AnalyseOutcome, AnalysisSettings } from '@/workers/analysis-protocol';
 import { sweepValues, sweepCsv, targetLabel, type SweepPoint, type SweepRange, type SweepTarget } from '@/lib/analysis/sweep';
 import { availableMetrics, metricById } from '@/lib/analysis/metrics';
 import { fringingCsv, fringingRow, fringingThresholds, FRINGING_RATIOS, thresholdText, type FringingRow } from '@/lib/analysis/fringing-study';
@@ -22,9 +20,14 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Input, Select } from '@/components/ui/field';
 import { cn } from '@/components/ui/cn';
+import { Dialog } from '@/components/ui/dialog';
+import { MeasuredUpload } from '@/components/teamwork/measured-upload';
+import type { Units } from '@/lib/section/schema';
 import { FieldCaution } from '@/components/field/caution';
 import { paintOverlay } from '@/components/field/field-overlay';
 import { AnalysisChart, type ChartSeries } from './analysis-chart';
+import { useAnalysisJob } from './use-analysis-job';
+import { matchMeasured, type MeasuredSet, type OverlayMatch } from './measured-overlay';
 
 export interface AnalysisAreaProps {
   workspaceId: string;
@@ -37,6 +40,21 @@ export interface AnalysisAreaProps {
   solvedSection: Section | null;
   /** For the measured-data overlay. */
   sectionId?: string;
+  /** Editors and owners may add measured data from the sweep card. */
+  canEdit?: boolean;
+}
+
+/** Colours of measured sets (the solved curve keeps the chart's first colour). */
+const MEASURED_COLOURS = ['#be123c', '#1d4ed8', '#7c3aed', '#b45309', '#4d7c0f', '#0e7490', '#a21caf', '#475569'];
+
+interface SweepState {
+  label: string;
+  unit: string;
+  log: boolean;
+  target: SweepTarget;
+  units: Units;
+  range: { min: number; max: number };
+  points: SweepPoint[];
 }
 
 type Tab = 'lines' | 'sweep' | 'fringing' | 'goal';
@@ -95,28 +113,12 @@ function NumberInput({ label, value, onChange, testId, step }: { label: string; 
   );
 }
 
-export function AnalysisArea({ workspaceId, section, canSolve, result, fields, solvedSection, sectionId }: AnalysisAreaProps) {
-  const clientRef = useRef<AnalysisClient | null>(null);
-  useEffect(() => {
-    const c = new AnalysisClient();
-    clientRef.current = c;
-    return () => c.dispose();
-  }, []);
-  const client = () => (clientRef.current ??= new AnalysisClient());
+export function AnalysisArea({ workspaceId, section, canSolve, result, fields, solvedSection, sectionId, canEdit = false }: AnalysisAreaProps) {
+  // One job at a time in the analysis worker: busy, progress, message, run and cancel.
+  const { busy, running, progress, message, setMessage, run, withBusy, cancel: stop } = useAnalysisJob();
 
   const [tab, setTab] = useState<Tab>('lines');
   const [preset, setPreset] = useState<Preset>('standard');
-  const [busy, setBusy] = useState<null | 'analyse' | 'sweep' | 'fringing' | 'goal' | 'confirm' | 'report'>(null);
-  const [progress, setProgress] = useState<PointProgress | null>(null);
-  const [message, setMessage] = useState<string | null>(null);
-  // Progress and point callbacks travel on their own message channels and may arrive after
-  // the job has ended; only the live job's callbacks reach the state.
-  const jobRef = useRef(0);
-  const startJob = () => ++jobRef.current;
-  const live = (job: number) => job === jobRef.current;
-  const endJob = () => {
-    jobRef.current++;
-  };
 
   // ---- lines and losses
   const [freqGHz, setFreqGHz] = useState('1');
@@ -144,7 +146,7 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
   const [to, setTo] = useState('2');
   const [count, setCount] = useState('12');
   const [list, setList] = useState('0.5, 1, 2');
-  const [sweep, setSweep] = useState<{ label: string; unit: string; log: boolean; points: SweepPoint[] } | null>(null);
+  const [sweep, setSweep] = useState<SweepState | null>(null);
   const [metricId, setMetricId] = useState('');
   const sweepMetricsAvail = useMemo(() => {
     const r = sweep?.points.find((p) => p.result)?.result;
@@ -153,20 +155,30 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
   const metric = sweepMetricsAvail.find((m) => m.id === metricId) ?? sweepMetricsAvail.find((m) => m.id === 'z0' || m.id === 'solvedOverIdeal') ?? sweepMetricsAvail[0];
 
   // ---- measured data overlay (kept with the section by the teamwork features)
-  const [measured, setMeasured] = useState<{ name: string; x: number[]; series: { name: string; valuesFPerM: number[] }[] }[]>([]);
+  const [measured, setMeasured] = useState<MeasuredSet[]>([]);
+  const [measuredError, setMeasuredError] = useState<string | null>(null);
+  const [measuredLoads, setMeasuredLoads] = useState(0);
+  const [hiddenSets, setHiddenSets] = useState<ReadonlySet<string>>(() => new Set());
+  const [addMeasuredOpen, setAddMeasuredOpen] = useState(false);
   useEffect(() => {
     if (!sectionId) return;
     let stop = false;
     fetch(`/api/workspaces/${workspaceId}/sections/${sectionId}/measurements`)
-      .then((r) => (r.ok ? r.json() : null))
-      .then((j: { measurements?: { name: string; data: { x: number[]; series: { name: string; valuesFPerM: number[] }[] } }[] } | null) => {
-        if (!stop && j?.measurements) setMeasured(j.measurements.map((m) => ({ name: m.name, x: m.data.x, series: m.data.series })));
+      .then(async (r) => {
+        const j = (await r.json().catch(() => null)) as { measurements?: MeasuredSet[]; error?: { message?: string } } | null;
+        if (stop) return;
+        if (r.ok && j?.measurements) {
+          setMeasured(j.measurements.map((m) => ({ id: m.id, name: m.name, data: m.data })));
+          setMeasuredError(null);
+        } else setMeasuredError(`Measured data could not be loaded: ${j?.error?.message ?? `the server answered ${r.status}`}.`);
       })
-      .catch(() => {});
+      .catch(() => {
+        if (!stop) setMeasuredError('Measured data could not be loaded: the server did not answer.');
+      });
     return () => {
       stop = true;
     };
-  }, [workspaceId, sectionId]);
+  }, [workspaceId, sectionId, measuredLoads]);
 
   // ---- fringing
   const [fringing, setFringing] = useState<{ rows: FringingRow[]; errors: string[] } | null>(null);
@@ -188,31 +200,15 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
   const settings = (extra: Partial<AnalysisSettings> = {}): AnalysisSettings => ({ preset, ...extra });
   const title = section?.title || solvedSection?.title || 'Section';
 
-  const stop = () => {
-    endJob();
-    clientRef.current?.cancel();
-    setBusy(null);
-    setProgress(null);
-    setMessage('Cancelled; the points finished so far are kept.');
-  };
-
   const runAnalyse = async () => {
     const s = solvedSection ?? section;
     if (!s) return;
     const f = Number(freqGHz) * 1e9;
     const v = Number(volts);
-    setBusy('analyse');
-    setMessage(null);
-    try {
-      const out = await client().run<AnalyseOutcome>((api) => api.analyse(s, settings({ ...(f > 0 ? { frequencyHz: f } : {}), ...(Number.isFinite(v) && v !== 0 ? { volts: v } : {}) })));
-      if (!out.cancelled) {
-        if (out.value.ok) setAnalysed(out.value.result);
-        else setMessage(out.value.message);
-      }
-    } catch (e) {
-      setMessage(e instanceof Error ? e.message : String(e));
-    } finally {
-      setBusy(null);
+    const out = await run<AnalyseOutcome>('analyse', {}, (api) => api.analyse(s, settings({ ...(f > 0 ? { frequencyHz: f } : {}), ...(Number.isFinite(v) && v !== 0 ? { volts: v } : {}) })));
+    if ('value' in out) {
+      if (out.value.ok) setAnalysed(out.value.result);
+      else setMessage(out.value.message);
     }
   };
 
@@ -230,34 +226,18 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     }
     const unit = target.target.kind === 'variable' ? (section.units === 'um' ? 'µm' : section.units) : '';
     const acc: SweepPoint[] = [];
-    setSweep({ label: target.label, unit, log: rangeKind === 'log', points: [] });
-    setBusy('sweep');
-    setMessage(null);
-    setProgress({ done: 0, total: values.length });
-    const job = startJob();
-    try {
-      await client().run((api) =>
-        api.sweep(
-          { section, target: target.target, values, settings: settings() },
-          proxy((p: SweepPoint) => {
-            if (!live(job)) return;
-            acc.push(p);
-            setSweep({ label: target.label, unit, log: rangeKind === 'log', points: [...acc] });
-          }),
-          proxy((p: PointProgress) => {
-            if (live(job)) setProgress(p);
-          }),
-        ),
-      );
-    } catch (e) {
-      setMessage(e instanceof Error ? e.message : String(e));
-    } finally {
-      if (live(job)) {
-        endJob();
-        setBusy(null);
-        setProgress(null);
-      }
-    }
+    const swept = { label: target.label, unit, log: rangeKind === 'log', target: target.target, units: section.units, range: { min: Math.min(...values), max: Math.max(...values) } } satisfies Omit<SweepState, 'points'>;
+    setSweep({ ...swept, points: [] });
+    await run('sweep', { total: values.length }, (api, job) =>
+      api.sweep(
+        { section, target: target.target, values, settings: settings() },
+        job.live((p: SweepPoint) => {
+          acc.push(p);
+          setSweep({ ...swept, points: [...acc] });
+        }),
+        job.onProgress,
+      ),
+    );
   };
 
   const runFringing = async () => {
@@ -267,35 +247,18 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     const rows: FringingRow[] = [];
     const errors: string[] = [];
     setFringing({ rows: [], errors: [] });
-    setBusy('fringing');
-    setMessage(null);
-    setProgress({ done: 0, total: ratios.length });
-    const job = startJob();
-    try {
-      await client().run((api) =>
-        api.fringing(
-          { section: s, ratios, settings: settings() },
-          proxy((p: SweepPoint) => {
-            if (!live(job)) return;
-            const row = p.result ? fringingRow(p.result) : null;
-            if (row) rows.push(row);
-            else errors.push(`d/w = ${p.value}: ${p.error ?? 'no plate pair'}`);
-            setFringing({ rows: [...rows], errors: [...errors] });
-          }),
-          proxy((p: PointProgress) => {
-            if (live(job)) setProgress(p);
-          }),
-        ),
-      );
-    } catch (e) {
-      setMessage(e instanceof Error ? e.message : String(e));
-    } finally {
-      if (live(job)) {
-        endJob();
-        setBusy(null);
-        setProgress(null);
-      }
-    }
+    await run('fringing', { total: ratios.length }, (api, job) =>
+      api.fringing(
+        { section: s, ratios, settings: settings() },
+        job.live((p: SweepPoint) => {
+          const row = p.result ? fringingRow(p.result) : null;
+          if (row) rows.push(row);
+          else errors.push(`d/w = ${p.value}: ${p.error ?? 'no plate pair'}`);
+          setFringing({ rows: [...rows], errors: [...errors] });
+        }),
+        job.onProgress,
+      ),
+    );
   };
 
   const goalUnit = metricById(goalMetric);
@@ -306,30 +269,20 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
       setMessage('Goal seek needs a named dimension: add a variable (for example w) and use it in the drawing.');
       return;
     }
-    setBusy('goal');
     setGoal(null);
     setConfirm(null);
     setGoalEvals([]);
-    setMessage(null);
     const acc: GoalSeekEvaluation[] = [];
-    const job = startJob();
-    try {
-      const out = await client().run<GoalSeekOutcome>((api) =>
-        api.goalSeek(
-          { section, variable, lo: Number(goalLo), hi: Number(goalHi), metric: goalMetric, target: Number(goalTarget) * goalUnit.factor, settings: settings() },
-          proxy((e: GoalSeekEvaluation) => {
-            if (!live(job)) return;
-            acc.push(e);
-            setGoalEvals([...acc]);
-          }),
-        ),
-      );
-      if (!out.cancelled) setGoal(out.value);
-    } catch (e) {
-      setMessage(e instanceof Error ? e.message : String(e));
-    } finally {
-      setBusy(null);
-    }
+    const out = await run<GoalSeekOutcome>('goal', {}, (api, job) =>
+      api.goalSeek(
+        { section, variable, lo: Number(goalLo), hi: Number(goalHi), metric: goalMetric, target: Number(goalTarget) * goalUnit.factor, settings: settings() },
+        job.live((e: GoalSeekEvaluation) => {
+          acc.push(e);
+          setGoalEvals([...acc]);
+        }),
+      ),
+    );
+    if ('value' in out) setGoal(out.value);
   };
 
   const runConfirm = async () => {
@@ -337,13 +290,10 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     const variable = goalVar || variables[0]!;
     const s = structuredClone(section);
     s.variables = { ...(s.variables ?? {}), [variable]: goal.value };
-    setBusy('confirm');
-    try {
-      const out = await client().run<AnalyseOutcome>((api) => api.analyse(s, settings(goalMetric === 'peak' ? { volts: 1 } : {})));
-      if (!out.cancelled && out.value.ok) setConfirm({ value: goal.value, metric: goalUnit.get(out.value.result) ?? NaN });
-      else if (!out.cancelled && !out.value.ok) setMessage(out.value.message);
-    } finally {
-      setBusy(null);
+    const out = await run<AnalyseOutcome>('confirm', {}, (api) => api.analyse(s, settings(goalMetric === 'peak' ? { volts: 1 } : {})));
+    if ('value' in out) {
+      if (out.value.ok) setConfirm({ value: goal.value, metric: goalUnit.get(out.value.result) ?? NaN });
+      else setMessage(out.value.message);
     }
   };
 
@@ -358,22 +308,15 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     }
   };
 
-  const report = async (body: Record<string, unknown>, name: string) => {
-    setBusy('report');
-    setMessage(null);
-    try {
+  const report = (body: Record<string, unknown>, name: string) =>
+    withBusy('report', async () => {
       const res = await fetch(`/api/workspaces/${workspaceId}/report`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
       if (!res.ok) {
         const j = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
         throw new Error(j?.error?.message ?? `The report could not be made (${res.status}).`);
       }
       download(name, 'application/pdf', await res.blob());
-    } catch (e) {
-      setMessage(e instanceof Error ? e.message : String(e));
-    } finally {
-      setBusy(null);
-    }
-  };
+    });
 
   const solveTables = shown ? resultTables(shown) : [];
   const sweepTbl = sweep && sweep.points.length ? sweepTable(sweep.label, sweep.unit, sweep.points) : null;
@@ -389,11 +332,33 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
         return v === undefined ? [] : [[p.value, v / metric.factor] as [number, number]];
       }),
     });
-    if (metric.unit === 'pF/m')
-      for (const m of measured)
-        for (const s of m.series)
-          sweepSeries.push({ name: `measured: ${m.name} ${s.name}`, points: m.x.map((x, i) => [x, s.valuesFPerM[i]! / 1e-12] as [number, number]), markersOnly: true });
   }
+  // Measured sets: each matched against the swept quantity and the charted value (units of both axes).
+  const materialNames = Object.fromEntries((section?.materials ?? []).map((m) => [m.id, m.name]));
+  const overlays: { set: MeasuredSet; colour: string; match: OverlayMatch }[] =
+    sweep && metric
+      ? measured.map((set, k) => ({
+          set,
+          colour: MEASURED_COLOURS[k % MEASURED_COLOURS.length]!,
+          match: matchMeasured(set, { target: sweep.target, units: sweep.units, materialNames }, metric, { ...sweep.range, log: sweep.log }),
+        }))
+      : [];
+  for (const o of overlays)
+    if (o.match.ok && !hiddenSets.has(o.set.id))
+      for (const s of o.match.series) sweepSeries.push({ name: `measured: ${s.name}`, points: s.points, markersOnly: true, colour: o.colour, testId: 'measured-point' });
+  const toggleSet = (id: string) =>
+    setHiddenSets((h) => {
+      const n = new Set(h);
+      if (n.has(id)) n.delete(id);
+      else n.add(id);
+      return n;
+    });
+  const sweepHint =
+    target?.target.kind === 'variable' && section
+      ? `This section's sweep of ${target.target.name} is in ${section.units === 'um' ? 'µm' : section.units}: a first column "${target.target.name} (${section.units === 'um' ? 'µm' : section.units})" lines up with it (other length units are converted).`
+      : target
+        ? `To compare with a sweep of ${target.label}, name the first column "${target.target.kind !== 'variable' && target.target.property === 'lossTangent' ? 'tanδ' : 'εr'}" (no unit).`
+        : undefined;
   const fringeSeries: ChartSeries[] = fringing
     ? [
         { name: 'solved / ideal', points: fringing.rows.map((r) => [r.gapToWidth, r.solvedOverIdeal]) },
@@ -409,7 +374,6 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
     { id: 'fringing', label: 'Fringing study' },
     { id: 'goal', label: 'Goal seek' },
   ];
-  const running = busy === 'sweep' || busy === 'fringing' || busy === 'goal' || busy === 'analyse' || busy === 'confirm';
 
   return (
     <Card className="p-4" aria-label="Analysis" data-testid="analysis-card">
@@ -560,6 +524,11 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
             <Button size="sm" variant="primary" disabled={!section || !canSolve || running || !target} onClick={runSweep} pending={busy === 'sweep'} data-testid="sweep-run">
               Run sweep
             </Button>
+            {sectionId && canEdit ? (
+              <Button size="sm" onClick={() => setAddMeasuredOpen(true)} data-testid="sweep-add-measured">
+                Add measured data
+              </Button>
+            ) : null}
           </div>
           {sweep && sweep.points.length ? (
             <>
@@ -588,7 +557,7 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
                         title: `${title}: sweep of ${sweep.label}`,
                         section,
                         tables: sweepTbl ? [sweepTbl] : [],
-                        chart: { title: `${metric?.label ?? ''} against ${sweep.label}`, xLabel: `${sweep.label}${sweep.unit ? ` (${sweep.unit})` : ''}`, yLabel: metric ? `${metric.label} ${metric.unit}` : '', logX: sweep.log, series: sweepSeries.map((s) => ({ name: s.name, points: s.points, ...(s.dashed ? { dashed: true } : {}) })) },
+                        chart: { title: `${metric?.label ?? ''} against ${sweep.label}`, xLabel: `${sweep.label}${sweep.unit ? ` (${sweep.unit})` : ''}`, yLabel: metric ? `${metric.label} ${metric.unit}` : '', logX: sweep.log, series: sweepSeries.filter((s) => !s.markersOnly).map((s) => ({ name: s.name, points: s.points, ...(s.dashed ? { dashed: true } : {}) })) },
                         method: `Each point is a full solve at the ${preset} preset. ${sweep.points[0]?.result?.errorEstimate.note ?? ''}`,
                       },
                       `edgefield-${slug(title)}-sweep.pdf`,
@@ -601,11 +570,71 @@ export function AnalysisArea({ workspaceId, section, canSolve, result, fields, s
               </div>
               {metric?.id === 'peak' ? <FieldCaution compact /> : null}
               <AnalysisChart series={sweepSeries} logX={sweep.log} xLabel={`${sweep.label}${sweep.unit ? ` (${sweep.unit})` : ''}`} yLabel={metric ? `${metric.label}${metric.unit ? ` (${metric.unit})` : ''}` : ''} testId="sweep-chart" />
+              {overlays.length ? (
+                <div className="rounded-md border border-line px-3 py-2" data-testid="measured-legend">
+                  <h4 className="mb-1 text-sm font-semibold text-ink">Measured data</h4>
+                  <ul className="flex flex-col gap-1.5">
+                    {overlays.map(({ set, colour, match }) => (
+                      <li key={set.id} className="text-sm" data-testid="measured-set" data-set-name={set.name} data-matched={match.ok ? 'true' : 'false'}>
+                        {match.ok ? (
+                          <label className="flex min-w-0 cursor-pointer items-center gap-2">
+                            <input type="checkbox" checked={!hiddenSets.has(set.id)} onChange={() => toggleSet(set.id)} data-testid="measured-toggle" aria-label={`Show ${set.name} on the chart`} />
+                            <svg width="12" height="12" viewBox="-6 -6 12 12" aria-hidden className="shrink-0">
+                              <path d="M0,-5L5,0L0,5L-5,0Z" fill="#ffffff" stroke={colour} strokeWidth={2} />
+                            </svg>
+                            <span className="min-w-0 truncate font-medium text-ink">{set.name}</span>
+                            <span className="shrink-0 text-xs text-ink-soft">
+                              {set.data.x.length} {set.data.x.length === 1 ? 'row' : 'rows'} · {set.data.series.map((c) => `${c.name} (${c.unit})`).join(', ')}
+                            </span>
+                          </label>
+                        ) : (
+                          <div className="flex min-w-0 items-start gap-2">
+                            <input type="checkbox" disabled checked={false} readOnly aria-label={`${set.name} cannot be shown on this chart`} className="mt-1" />
+                            <span className="min-w-0">
+                              <span className="font-medium text-ink">{set.name}</span>
+                              <span className="text-ink-soft"> is not shown: </span>
+                              <span className="text-amber-700" data-testid="measured-note">
+                                {match.reason}
+                              </span>
+                            </span>
+                          </div>
+                        )}
+                        {match.ok && match.notes.length ? (
+                          <p className="ml-6 text-xs text-ink-soft" data-testid="measured-note">
+                            {match.notes.join(' ')}
+                          </p>
+                        ) : null}
+                      </li>
+                    ))}
+                  </ul>
+                  <p className="mt-1 text-xs text-ink-muted">Measured points are hollow diamonds, drawn as uploaded (converted to the chart's units); the PDF report charts the solved values only.</p>
+                </div>
+              ) : null}
               {sweepTbl ? <TableView table={sweepTbl} testId="sweep-table" /> : null}
             </>
           ) : (
-            <p className="text-sm text-ink-soft">Vary a named dimension or a material value; each point is a full solve in the background. Cancel keeps the points already done.</p>
+            <p className="text-sm text-ink-soft">
+              Vary a named dimension or a material value; each point is a full solve in the background. Cancel keeps the points already done.
+              {measured.length ? ` ${measured.length} measured ${measured.length === 1 ? 'set is' : 'sets are'} kept with this section and show on capacitance charts where they match the swept quantity.` : ''}
+            </p>
           )}
+          {measuredError ? (
+            <p className="text-xs text-danger" data-testid="measured-load-error">
+              {measuredError}
+            </p>
+          ) : null}
+          {sectionId && canEdit ? (
+            <Dialog open={addMeasuredOpen} onClose={() => setAddMeasuredOpen(false)} title="Add measured data" description="A CSV of measured capacitance per length, kept with this section for comparison on sweep charts." data-testid="add-measured-dialog">
+              <MeasuredUpload
+                workspaceId={workspaceId}
+                sectionId={sectionId}
+                hint={sweepHint}
+                onUploaded={() => {
+                  setMeasuredLoads((n) => n + 1);
+                }}
+              />
+            </Dialog>
+          ) : null}
         </div>
       ) : null}
 

@@ -1,6 +1,9 @@
 'use client';
-/** A line chart of results against a swept value (recharts), log or linear x. */
-import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from 'recharts';
+/**
+ * A line chart of results against a swept value (recharts), log or linear x. Measured data
+ * (markersOnly) draws as hollow diamonds without a line, so it never reads as a solved curve.
+ */
+import { CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis, type ScatterShapeProps } from 'recharts';
 
 export interface ChartSeries {
   name: string;
@@ -8,9 +11,23 @@ export interface ChartSeries {
   dashed?: boolean;
   /** Measured data: markers without a line. */
   markersOnly?: boolean;
+  /** Fixed colour (measured sets keep theirs when others are hidden). */
+  colour?: string;
+  /** data-testid of each marker (markersOnly) and data-series of the series' group. */
+  testId?: string;
 }
 
 const COLOURS = ['#0f766e', '#b45309', '#6d28d9', '#64748b', '#be123c', '#1d4ed8', '#4d7c0f'];
+/** A hollow diamond marker with a test id; recharts passes the point's pixel centre. */
+function diamond(colour: string, testId: string | undefined) {
+  function DiamondMarker({ cx, cy }: ScatterShapeProps) {
+    if (cx === undefined || cy === undefined) return <g />;
+    const r = 5;
+    return <path d={`M${cx},${cy - r}L${cx + r},${cy}L${cx},${cy + r}L${cx - r},${cy}Z`} fill="#ffffff" stroke={colour} strokeWidth={2} data-testid={testId} />;
+  }
+  return DiamondMarker;
+}
+
 const fmt = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(3))));
 
 export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series: ChartSeries[]; logX?: boolean; xLabel: string; yLabel: string; testId?: string }) {
@@ -29,6 +46,7 @@ export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series
               scale={logX ? 'log' : 'linear'}
               domain={[Math.min(...xs), Math.max(...xs)]}
               allowDataOverflow
+              padding={{ left: 8, right: 8 }}
               tickFormatter={fmt}
               label={{ value: xLabel, position: 'insideBottom', offset: -12, fontSize: 12 }}
               fontSize={11}
@@ -38,7 +56,17 @@ export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series
             <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12 }} />
             {usable.map((s, i) =>
               s.markersOnly ? (
-                <Scatter key={s.name} name={s.name} data={s.points.map(([x, y]) => ({ x, y }))} fill={COLOURS[i % COLOURS.length]} isAnimationActive={false} />
+                <Scatter
+                  key={s.name}
+                  name={s.name}
+                  data={s.points.map(([x, y]) => ({ x, y }))}
+                  fill={s.colour ?? COLOURS[i % COLOURS.length]}
+                  stroke={s.colour ?? COLOURS[i % COLOURS.length]}
+                  legendType="diamond"
+                  shape={diamond(s.colour ?? COLOURS[i % COLOURS.length]!, s.testId)}
+                  className="measured-series"
+                  isAnimationActive={false}
+                />
               ) : (
                 <Line
                   key={s.name}
@@ -46,7 +74,7 @@ export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series
                   data={s.points.map(([x, y]) => ({ x, y }))}
                   dataKey="y"
                   type="monotone"
-                  stroke={COLOURS[i % COLOURS.length]}
+                  stroke={s.colour ?? COLOURS[i % COLOURS.length]}
                   strokeWidth={s.dashed ? 1.5 : 2}
                   strokeDasharray={s.dashed ? '5 4' : undefined}
                   dot={s.dashed ? false : { r: 3 }}

@@ -146,6 +146,7 @@ export function SectionSolveArea(props: SectionSolveAreaProps) {
         <AnalysisArea
           workspaceId={workspaceId}
           sectionId={sectionId}
+          canEdit={canEdit}
           section={section}
           canSolve={canSolve}
           result={state.result}

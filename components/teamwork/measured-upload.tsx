@@ -2,12 +2,17 @@
 
 import { Upload } from 'lucide-react';
 import { useRouter } from 'next/navigation';
-import { useId, useState, type ChangeEvent } from 'react';
+import { useId, useState, type ChangeEvent, type ReactNode } from 'react';
 import { Alert } from '@/components/ui/alert';
 import { apiFetch, errorMessage } from '@/components/ui/api';
 
-/** Upload a measured-capacitance CSV for a section (editors). The server checks it again. */
-export function MeasuredUpload({ workspaceId, sectionId }: { workspaceId: string; sectionId: string }) {
+/**
+ * Upload a measured-capacitance CSV for a section (editors). The server checks it again.
+ * Used in the section's files card and, in a dialog, from the sweep card ("Add measured
+ * data"), which passes `onUploaded` to show the new set at once and a `hint` naming the
+ * sweep's quantity and unit.
+ */
+export function MeasuredUpload({ workspaceId, sectionId, onUploaded, hint }: { workspaceId: string; sectionId: string; onUploaded?: (name: string) => void; hint?: ReactNode }) {
   const id = useId();
   const router = useRouter();
   const [error, setError] = useState<string>();
@@ -34,6 +39,7 @@ export function MeasuredUpload({ workspaceId, sectionId }: { workspaceId: string
         headers: { 'content-type': 'text/csv' },
       });
       setDone(`${file.name} was added.`);
+      onUploaded?.(file.name);
       router.refresh();
     } catch (e) {
       setError(errorMessage(e));
@@ -55,6 +61,7 @@ export function MeasuredUpload({ workspaceId, sectionId }: { workspaceId: string
         Header row, then numbers: the swept quantity first (e.g. <code>w (mm)</code>), then capacitance columns with units (e.g.{' '}
         <code>C (pF/m)</code>). Kept for overlay on sweep charts.
       </p>
+      {hint ? <p className="text-xs text-ink-soft">{hint}</p> : null}
       {error ? (
         <Alert tone="danger" data-testid="measured-error">
           {error}
