@@ -138,15 +138,8 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
   return (
     <Block
       title="Summary"
-      hint="Quasi-static (TEM) line values of this solve; losses and peak field from its finest mesh."
+      hint="Quasi-static (TEM) values; loss and peak field from this solve's mesh."
       testId="results-summary"
-      actions={
-        onShowDetails ? (
-          <button type="button" onClick={onShowDetails} className="shrink-0 whitespace-nowrap text-xs font-medium text-accent hover:underline" data-testid="results-summary-details">
-            Details in Analysis ↓
-          </button>
-        ) : null
-      }
     >
       <dl className="flex flex-col text-sm">
         {line ? (
@@ -241,22 +234,23 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
               in {whereWords(peak.where)} {at(peak)}
               {peak.singular ? ' · at a sharp corner or edge: grows as the mesh is refined' : ''}
             </p>
-            <Row
-              k="Breakdown margin"
-              v={
-                weakest
-                  ? `${sig(weakest.margin!, 3)} × (${whereWords(weakest.where)}, typical strength ${sig(weakest.strengthVPerM! / 1e6, 3)} kV/mm)`
-                  : 'no dielectric strength given for the materials'
-              }
-              testId="summary-margin"
-              warn={weakest ? weakest.margin! < 1 : false}
-            />
+            <Row k="Breakdown margin" v={weakest ? `${sig(weakest.margin!, 3)} ×` : 'no strength given'} testId="summary-margin" warn={weakest ? weakest.margin! < 1 : false} />
+            <p className="pb-1 text-right text-xs text-ink-soft" data-testid="summary-margin-where">
+              {weakest
+                ? `typical strength of ${whereWords(weakest.where)} (${Number((weakest.strengthVPerM! / 1e6).toPrecision(3))} kV/mm) over its peak field${weakest.margin! < 1 ? ': the peak exceeds it' : ''}`
+                : 'No material of this section has a dielectric strength.'}
+            </p>
           </>
         ) : (
           <Row k="Peak |E|" v={pending ? '…' : canCompute ? '—' : 'not part of this result'} />
         )}
       </dl>
       {peak || canCompute ? <FieldCaution compact className="mt-2" testId="summary-caution" /> : null}
+      {onShowDetails ? (
+        <button type="button" onClick={onShowDetails} className="mt-2 text-xs font-medium text-accent hover:underline" data-testid="results-summary-details">
+          Details, sweeps and exports in the Analysis card ↓
+        </button>
+      ) : null}
     </Block>
   );
 }
