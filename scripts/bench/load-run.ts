@@ -9,6 +9,8 @@
  * among its connection errors; they are reported separately too). Latencies are of the 2xx
  * answers (autocannon's default), in ms.
  */
+import type { EventEmitter } from 'node:events';
+import { writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import autocannon from 'autocannon';
 
@@ -74,8 +76,19 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
       client.setRequests(opts.requestsFor(nextClient++));
     },
   });
-  // autocannon prints nothing unless asked; stop it cleanly on Ctrl-C (load-server stops the server).
+  // BENCH_LOAD_TRACE=<file>: one line per answer, "ms-since-start status latency-ms", to see
+  // whether slow answers come in bursts (a stall of the server) or spread out (queueing).
+  const trace = process.env.BENCH_LOAD_TRACE;
+  const lines: string[] = [];
+  const t0 = performance.now();
+  if (trace) {
+    // without a callback autocannon returns its event emitter with a then() (the typings only show the promise)
+    (instance as unknown as EventEmitter).on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
+      lines.push(`${Math.round(performance.now() - t0)} ${status} ${Math.round(ms)}`);
+    });
+  }
   const result = await instance;
+  if (trace) writeFileSync(trace, lines.join('\n') + '\n');
   const statusOther: Record<string, number> = {};
   for (const [code, v] of Object.entries(result.statusCodeStats ?? {})) {
     if (!/^2\d\d$/.test(code)) statusOther[code] = v?.count ?? 0;
