@@ -79,6 +79,24 @@ describe('backup and restore', () => {
     }
   });
 
+  it('a backup of the restored database (PostgreSQL under test:pg) restores into a fresh embedded one, every row equal', async () => {
+    const middle = await createTestDb();
+    const again = path.join(tmp, 'round-trip.backup.gz');
+    try {
+      await restoreBackup(middle, file);
+      await writeBackup(middle, again);
+    } finally {
+      await middle.close();
+    }
+    const fresh = await openPglite('memory://', { loadDataDir: await templateBlob(), migrate: false });
+    try {
+      await restoreBackup(fresh, again);
+      expect(await allRows(fresh)).toEqual(await allRows(source));
+    } finally {
+      await fresh.close();
+    }
+  });
+
   it('refuses a target that is not empty, naming the tables, and changes nothing', async () => {
     const target = await createTestDb();
     try {
