@@ -68,6 +68,8 @@ export interface TableMeta {
   /** Columns filled by a sequence (bigserial). */
   serial: string[];
   nullable: Set<string>;
+  /** Has a bytea column (field blobs, files): read a few rows at a time. */
+  binary: boolean;
 }
 export interface ForeignKey {
   table: string;
@@ -83,7 +85,7 @@ export async function readSchema(db: DbOrTx): Promise<{ tables: TableMeta[]; fks
   ).map((r) => String(r.t));
   const cols = await q(
     db,
-    sql`select table_name as t, column_name as c, is_nullable as n, column_default as d
+    sql`select table_name as t, column_name as c, is_nullable as n, column_default as d, data_type as ty
           from information_schema.columns where table_schema = 'public' order by table_name, ordinal_position`,
   );
   const keys = await q(
@@ -104,6 +106,7 @@ export async function readSchema(db: DbOrTx): Promise<{ tables: TableMeta[]; fks
       .filter(Boolean),
     serial: cols.filter((c) => c.t === name && String(c.d ?? '').startsWith('nextval(')).map((c) => String(c.c)),
     nullable: new Set(cols.filter((c) => c.t === name && c.n === 'YES').map((c) => String(c.c))),
+    binary: cols.some((c) => c.t === name && c.ty === 'bytea'),
   }));
   const fks = keys
     .filter((k) => k.kind === 'f')
@@ -147,7 +150,9 @@ async function appliedMigrations(db: DbOrTx): Promise<string[]> {
   return (await q(db, sql`select hash from drizzle.__drizzle_migrations order by created_at, id`)).map((r) => String(r.hash));
 }
 
+/** Rows per read; tables with blobs (up to tens of MB each) are read a few rows at a time. */
 const PAGE = 200;
+const BINARY_PAGE = 4;
 
 /**
  * Write a backup of `handle` to `file` (through a temporary file renamed at the end, so a
@@ -191,14 +196,15 @@ export async function writeBackup(handle: DbHandle, file: string): Promise<{ row
           const t = tables.find((x) => x.name === name)!;
           const by = sql.join((t.primaryKey.length ? t.primaryKey : ['ctid']).map((c) => (c === 'ctid' ? sql.raw('ctid') : ident(c))), sql`, `);
           counts[name] = 0;
-          for (let offset = 0; ; offset += PAGE) {
-            const rows = await q(tx, sql`select to_jsonb(x) as r from ${ident(name)} x order by ${by} limit ${PAGE} offset ${offset}`);
+          const page = t.binary ? BINARY_PAGE : PAGE;
+          for (let offset = 0; ; offset += page) {
+            const rows = await q(tx, sql`select to_jsonb(x) as r from ${ident(name)} x order by ${by} limit ${page} offset ${offset}`);
             for (const r of rows) {
               const row = typeof r.r === 'string' ? JSON.parse(r.r) : r.r;
               await write({ t: name, r: row });
               counts[name]++;
             }
-            if (rows.length < PAGE) break;
+            if (rows.length < page) break;
           }
         }
         const trailer: BackupTrailer = { end: true, rows: counts };

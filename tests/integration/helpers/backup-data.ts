@@ -10,6 +10,7 @@ import {
   billingEvents,
   comments,
   demoMails,
+  files,
   notifications,
   sessions,
   solves,
@@ -58,6 +59,22 @@ export async function fillEveryTable(h: DbHandle): Promise<World> {
     { workspaceId: w.wsA, actorId: w.users.owner.id, action: 'section.create', targetType: 'section', targetId: w.sectionA, data: { note: 'ü' } },
     { workspaceId: w.wsB, actorId: null, action: 'solve.create', targetType: 'solve', targetId: w.solveB },
   ]);
+  // More rows than one read page holds (200; 4 for tables with blobs), so paging is exercised.
+  await db.insert(auditEvents).values(
+    Array.from({ length: 230 }, (_, i) => ({ workspaceId: w.wsA, actorId: w.users.editor.id, action: 'section.view', targetType: 'section', targetId: w.sectionA, data: { i } })),
+  );
+  await db.insert(files).values(
+    Array.from({ length: 9 }, (_, i) => ({
+      workspaceId: w.wsA,
+      sectionId: w.sectionA,
+      kind: 'measured-csv',
+      name: `sweep-${i}.csv`,
+      mediaType: 'text/csv',
+      bytes: 3 + i,
+      data: new Uint8Array(3 + i).map((_, j) => (i * 31 + j * 7) % 256),
+      uploadedBy: w.users.editor.id,
+    })),
+  );
   await db.insert(demoMails).values({ from: 'no-reply@edgefield.example', to: 'viewer@test.example', subject: 'Sign in', text: 'x' });
   await db.insert(notifications).values({ userId: w.users.viewer.id, workspaceId: w.wsA, kind: 'comment', data: { solveId: w.solveA } });
   await db.insert(workspaceMaterials).values({ workspaceId: w.wsA, content: { id: 'fr4x', name: 'Board laminate', epsR: 4.3 } });
