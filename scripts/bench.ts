@@ -88,7 +88,7 @@ function printLoadTable(rows: CaseResult[], out: (s?: string) => void): void {
   const cols: [string, string][] = [
     ['case', 'name'], ['conn.', 'connections'], ['s', 'durationS'], ['requests', 'requests'], ['req/s', 'rps'],
     ['p50 ms', 'p50Ms'], ['p90 ms', 'p90Ms'], ['p99 ms', 'p99Ms'], ['max ms', 'maxMs'], ['errors', 'errors'],
-    ['non-2xx', 'non2xx'], ['timeouts', 'timeouts'], ['load avg', 'loadAvgStart'],
+    ['non-2xx', 'non2xx'], ['timeouts', 'timeouts'], ['load avg', 'loadAvgStart'], ['srv cpu ms/req', 'serverCpuMsPerRequest'],
   ];
   const cells = rows.map((r) => cols.map(([, k]) => (r[k] === undefined ? '-' : fmt(r[k]))));
   const widths = cols.map(([h], i) => Math.max(h.length, ...cells.map((c) => c[i]!.length)));
@@ -106,6 +106,7 @@ function printLoadTable(rows: CaseResult[], out: (s?: string) => void): void {
   out('Load cases: a production build (next start, loopback, fresh demo data) under autocannon, one signed-in user per');
   out('connection, pipelining 1. Latencies are of 2xx answers; errors = non-2xx + connection errors + timeouts (10 s).');
   out('"load avg" is the machine\'s 1-minute load average when the run started: other work on the 2 cores slows the server.');
+  out('"srv cpu ms/req" is the server process\'s CPU time per answer, steadier on a busy machine: 1000 / it ≈ answers/s on one free core.');
   out('BENCH_LOAD_SECONDS=5 shortens the runs (default 30 s); see DEVELOPERS.md, Profiling.');
   out();
 }

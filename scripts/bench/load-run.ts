@@ -27,6 +27,8 @@ export interface LoadOptions {
   requestsFor(i: number): LoadRequest[];
   /** Seconds after which a request counts as timed out. @default 10 */
   timeoutS?: number;
+  /** The server process's CPU time so far, ms (for serverCpuMsPerRequest). */
+  serverCpuMs?: () => number;
 }
 
 export interface LoadFigures {
@@ -49,6 +51,11 @@ export interface LoadFigures {
   loadAvgEnd: number;
   /** HTTP status → count, for anything but 2xx (empty when all went well). */
   statusOther: Record<string, number>;
+  /**
+   * Server CPU time (user + system) per answer during the run, ms: steadier than the latencies
+   * on a busy machine; 1000 / this is about the answers per second one free core would give.
+   */
+  serverCpuMsPerRequest: number;
 }
 
 export function loadDurationS(): number {
@@ -63,6 +70,7 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
   const connections = opts.connections ?? 50;
   const durationS = opts.durationS ?? loadDurationS();
   const loadAvgStart = loadavg()[0]!;
+  const cpu0 = opts.serverCpuMs?.() ?? NaN;
   let nextClient = 0;
   const instance = autocannon({
     url: opts.origin,
@@ -88,6 +96,7 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
     });
   }
   const result = await instance;
+  const serverCpu = (opts.serverCpuMs?.() ?? NaN) - cpu0;
   if (trace) writeFileSync(trace, lines.join('\n') + '\n');
   const statusOther: Record<string, number> = {};
   for (const [code, v] of Object.entries(result.statusCodeStats ?? {})) {
@@ -110,5 +119,6 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
     loadAvgStart: Math.round(loadAvgStart * 100) / 100,
     loadAvgEnd: Math.round(loadavg()[0]! * 100) / 100,
     statusOther,
+    serverCpuMsPerRequest: Math.round((serverCpu / Math.max(1, result.requests.total)) * 100) / 100,
   };
 }

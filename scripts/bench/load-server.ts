@@ -204,6 +204,8 @@ export interface BenchServer {
   users: BenchUser[];
   /** The server's output so far (for error messages). */
   logTail(): string;
+  /** CPU time (user + system) the server process has used so far, ms; NaN where /proc is missing. */
+  cpuMs(): number;
   stop(): Promise<void>;
 }
 
@@ -275,7 +277,19 @@ export async function startServer(): Promise<BenchServer> {
     await new Promise((r) => setTimeout(r, 250));
   }
   log(`server ready at ${origin} (build ${distDir()}, data ${dataDir})`);
-  return { origin, port, workspaceId: tpl.workspaceId, users: tpl.users, logTail, stop };
+  const cpuMs = () => processCpuMs(child.pid);
+  return { origin, port, workspaceId: tpl.workspaceId, users: tpl.users, logTail, cpuMs, stop };
+}
+
+/** utime + stime of a process from /proc/<pid>/stat, ms (Linux clock ticks of 10 ms). */
+function processCpuMs(pid: number | undefined): number {
+  try {
+    const stat = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    return (Number(f[11]) + Number(f[12])) * 10;
+  } catch {
+    return NaN;
+  }
 }
 
 /** The cookies of a response as "name=value" pairs. */

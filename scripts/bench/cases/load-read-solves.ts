@@ -54,6 +54,7 @@ export async function run(): Promise<LoadReadResult> {
 
     const figures = await runLoad({
       origin,
+      serverCpuMs: server.cpuMs,
       connections: 50,
       requestsFor: (i): LoadRequest[] => {
         const headers = { cookie: cookies[i % cookies.length]! };

@@ -76,6 +76,7 @@ export async function run(): Promise<LoadSaveResult> {
 
     const figures = await runLoad({
       origin,
+      serverCpuMs: server.cpuMs,
       connections,
       requestsFor: (i): LoadRequest[] => {
         const slot = slots[i]!;
