@@ -473,3 +473,115 @@ export function interpolateSmoothRed(t: Transfer, xc: Real, lv: SweepLevel, cInv
     }
   }
 }
+
+/** xf += P xc on fine row j only (padded vectors). Writes xf on that row. */
+function interpolateRow(t: Transfer, xc: Real, xf: Real, j: number): void {
+  const { nx, ncx, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
+  const nxEven = nx & ~1;
+  let K = (j >> 1) * ncx + off;
+  const fr = j * nx + fineOff;
+  if ((j & 1) === 0) {
+    for (let i = 0; i < nxEven; i += 2, K++) {
+      const v = xc[K];
+      xf[fr + i] += v;
+      xf[fr + i + 1] += pxW[K] * v + pxE[K] * xc[K + 1];
+    }
+    if (nx & 1) xf[fr + nx - 1] += xc[K];
+  } else {
+    for (let i = 0; i < nxEven; i += 2, K++) {
+      xf[fr + i] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
+      xf[fr + i + 1] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+    }
+    if (nx & 1) xf[fr + nx - 1] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
+  }
+}
+
+/** bc = Pᵀ r on coarse row J only, from fine rows 2J − 1 … 2J + 1 of r (padded). Writes bc on that row. */
+function restrictRow(t: Transfer, rf: Real, bc: Real, J: number): void {
+  const { nx, ncx, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
+  let K = J * ncx + off;
+  let f = 2 * J * nx + fineOff;
+  for (let I = 0; I < ncx; I++, K++, f += 2) {
+    bc[K] =
+      rf[f] +
+      pxW[K] * rf[f + 1] +
+      pxE[K - 1] * rf[f - 1] +
+      pyS[K] * rf[f + nx] +
+      pyN[K - ncx] * rf[f - nx] +
+      pcSW[K] * rf[f + nx + 1] +
+      pcSE[K - 1] * rf[f + nx - 1] +
+      pcNW[K - ncx] * rf[f - nx + 1] +
+      pcNE[K - ncx - 1] * rf[f - nx - 1];
+  }
+}
+
+/**
+ * The descent of a coarse level smoothed by lexicographic Gauss–Seidel, in one pass over
+ * memory: a forward sweep from a zero start, the residual and the restriction bc = Pᵀ r.
+ * After a forward sweep from zero, node k's equation holds with its lower neighbours' new
+ * values and its upper neighbours at zero, so its residual is Σ (upper couplings × new x):
+ * r_k = e_k x_{k+1} + n_k x_{k+nx} + ne_k x_{k+nx+1} + nw_k x_{k+nx−1}, four terms instead of
+ * ten (equal to b − A x up to round-off). Rows are pipelined: sweep row j, residual row j − 1,
+ * then the coarse row whose three fine rows are complete. Writes lv.x, r and bc.
+ */
+export function gaussSeidelResidualRestrict(lv: SweepLevel, cInv: Real, t: Transfer, r: Real, bc: Real): void {
+  const { nx, ny, off: fo, w, s, x, b } = lv;
+  const sw = lv.sw, se = lv.se;
+  for (let j = 0; j <= ny; j++) {
+    if (j < ny) {
+      const r0 = fo + j * nx;
+      const end = r0 + nx;
+      if (sw === null || se === null) {
+        for (let kk = r0; kk < end; kk++) x[kk] = (b[kk] + w[kk] * x[kk - 1] + s[kk] * x[kk - nx]) * cInv[kk];
+      } else {
+        for (let kk = r0; kk < end; kk++) {
+          x[kk] = (b[kk] + w[kk] * x[kk - 1] + s[kk] * x[kk - nx] + sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1]) * cInv[kk];
+        }
+      }
+    }
+    const jq = j - 1;
+    if (jq < 0) continue;
+    const r0 = fo + jq * nx;
+    const end = r0 + nx;
+    if (jq === ny - 1) {
+      // top row: no upper row; only the east neighbour
+      for (let kk = r0; kk < end; kk++) r[kk] = w[kk + 1] * x[kk + 1];
+    } else if (sw === null || se === null) {
+      for (let kk = r0; kk < end; kk++) r[kk] = w[kk + 1] * x[kk + 1] + s[kk + nx] * x[kk + nx];
+    } else {
+      for (let kk = r0; kk < end; kk++) {
+        r[kk] = w[kk + 1] * x[kk + 1] + s[kk + nx] * x[kk + nx] + sw[kk + nx + 1] * x[kk + nx + 1] + se[kk + nx - 1] * x[kk + nx - 1];
+      }
+    }
+    if ((jq & 1) === 1 || jq === ny - 1) restrictRow(t, r, bc, jq >> 1);
+  }
+}
+
+/**
+ * The ascent of a coarse level smoothed by lexicographic Gauss–Seidel, in one pass over
+ * memory: the correction xf += P xc, then a backward sweep (the adjoint of the forward one).
+ * Rows are pipelined from the top: interpolation of row j − 1, then the backward sweep of row
+ * j (which reads row j − 1 before it is swept). Same arithmetic as interpolateAdd followed by
+ * sweepGaussSeidel(lv, cInv, false, false). Writes lv.x.
+ */
+export function interpolateGaussSeidelBack(t: Transfer, xc: Real, lv: SweepLevel, cInv: Real): void {
+  const { nx, ny, off: fo, w, s, x, b } = lv;
+  const sw = lv.sw, se = lv.se;
+  interpolateRow(t, xc, x, ny - 1);
+  for (let j = ny - 1; j >= 0; j--) {
+    if (j > 0) interpolateRow(t, xc, x, j - 1);
+    const r0 = fo + j * nx;
+    if (sw === null || se === null) {
+      for (let kk = r0 + nx - 1; kk >= r0; kk--) {
+        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+      }
+    } else {
+      for (let kk = r0 + nx - 1; kk >= r0; kk--) {
+        const f =
+          b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] +
+          sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
+        x[kk] = f * cInv[kk];
+      }
+    }
+  }
+}

@@ -35,6 +35,8 @@ import {
   interpolateAddRed,
   interpolateSmoothRed,
   smoothResidualRestrictRed,
+  gaussSeidelResidualRestrict,
+  interpolateGaussSeidelBack,
   type Stencil9,
   type Transfer,
 } from './multigrid-transfer';
@@ -319,12 +321,15 @@ function coarseSolve(ch: BandCholesky, lv: MgLevel): void {
     for (let t = lo; t < m; t++) v -= L[row - t] * y[t];
     y[m] = v * invDiag[m];
   }
-  for (let m = size - 1; m >= 0; m--) {
-    let v = y[m];
-    const hi = Math.min(size - 1, m + bw);
-    for (let q = m + 1; q <= hi; q++) v -= L[q * W + (q - m)] * y[q];
-    y[m] = v * invDiag[m];
-    x[perm[m] + off] = y[m];
+  // backward substitution by rows of L (Lᵀ by columns): once y[q] is final it is removed from
+  // the band above it, so L is read contiguously
+  for (let q = size - 1; q >= 0; q--) {
+    const v = y[q] * invDiag[q];
+    y[q] = v;
+    x[perm[q] + off] = v;
+    const lo = Math.max(0, q - bw);
+    const row = q * W + q;
+    for (let m = lo; m < q; m++) y[m] -= L[row - m] * v;
   }
 }
 
@@ -478,6 +483,13 @@ function cycle(h: Hierarchy, l: number): void {
     return;
   }
   const gs = lv.gsInv;
+  if (gs !== null && sweeps === 1 && h.gammaPerLevel[l] === 1) {
+    // the same steps as below, each fused into one pass over memory
+    gaussSeidelResidualRestrict(lv, gs, t, lv.r, cl.b);
+    cycle(h, l + 1);
+    interpolateGaussSeidelBack(t, cl.x, lv, gs);
+    return;
+  }
   if (gs !== null) {
     // lexicographic Gauss–Seidel: forward before, backward after (the adjoint)
     for (let v = 0; v < sweeps; v++) sweepGaussSeidel(lv, gs, true, v === 0);

@@ -6,8 +6,17 @@
  */
 import { describe, expect, it } from 'vitest';
 import { applyPreconditioner, setupHierarchy, solve } from '../../../lib/fdm/multigrid';
-import { interpolateAddRed, interpolateSmoothRed, residualRestrictRed, smoothResidualRestrictRed } from '../../../lib/fdm/multigrid-transfer';
-import { inverseDiagonal, residualAt, sweepGaussSeidel, sweepRedBlack } from '../../../lib/fdm/smoothers';
+import {
+  gaussSeidelResidualRestrict,
+  interpolateAdd,
+  interpolateAddRed,
+  interpolateGaussSeidelBack,
+  interpolateSmoothRed,
+  residualRestrictRed,
+  restrict,
+  smoothResidualRestrictRed,
+} from '../../../lib/fdm/multigrid-transfer';
+import { inverseDiagonal, residualAt, residualFull, sweepGaussSeidel, sweepRedBlack } from '../../../lib/fdm/smoothers';
 import { hardSystem, uniformMicrostrip } from '../../../scripts/bench/systems';
 
 const sizes: [number, number][] = [
@@ -93,6 +102,44 @@ describe('lexicographic Gauss–Seidel on coarse levels', () => {
       for (let k = off; k < off + size; k++) expect(Math.abs(lv.x[k] - ref0[k])).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(ref0[k])));
     }
   });
+
+  for (const [nx, ny] of [[17, 13], [16, 12], [15, 20], [33, 29]] as [number, number][]) {
+    it(`fused descent (forward sweep + residual + restriction) and ascent (interpolation + backward sweep) equal the separate kernels, ${nx}×${ny}`, () => {
+      const sys = hardSystem(nx, ny, { maxRatio: 3, robin: 0.1 });
+      const h = setupHierarchy(sys.op, { coarsestNodes: 4, precision: 'double', coarseSmoother: 'point' });
+      // level 0 (5-point) and level 1 (9-point) both, each with the transfer to the next level
+      for (let l = 0; l + 1 < Math.min(h.levels.length, 3); l++) {
+        const lv = h.levels[l], cl = h.levels[l + 1], t = h.transfers[l];
+        const inv = inverseDiagonal(lv);
+        const { off } = lv;
+        for (let k = 0; k < lv.nx * lv.ny; k++) lv.b[k + off] = Math.sin(0.37 * k) + 0.2;
+        lv.x.fill(Math.E); // a zero-start sweep must not read it
+        sweepGaussSeidel(lv, inv, true, true);
+        const refX = lv.x.slice();
+        const r = lv.r.slice().fill(0);
+        residualFull(lv, r);
+        const refB = cl.b.slice().fill(0);
+        restrict(t, r, refB);
+        lv.x.fill(-1);
+        const gotB = refB.slice().fill(0);
+        gaussSeidelResidualRestrict(lv, inv, t, lv.r.slice().fill(0), gotB);
+        for (let k = off; k < off + lv.nx * lv.ny; k++) expect(lv.x[k]).toBe(refX[k]);
+        // the residual from the upper couplings only equals b − A x up to round-off (common practice, no published source)
+        const scale = Math.max(...Array.from(refB, Math.abs));
+        for (let K = cl.off; K < cl.off + cl.nx * cl.ny; K++) expect(Math.abs(gotB[K] - refB[K])).toBeLessThanOrEqual(1e-12 * scale);
+        // ascent
+        const xc = cl.x.slice().fill(0);
+        for (let K = cl.off; K < cl.off + cl.nx * cl.ny; K++) xc[K] = Math.cos(K);
+        const start = lv.x.slice();
+        interpolateAdd(t, xc, lv.x);
+        sweepGaussSeidel(lv, inv, false, false);
+        const ref2 = lv.x.slice();
+        lv.x.set(start);
+        interpolateGaussSeidelBack(t, xc, lv, inv);
+        for (let k = 0; k < lv.x.length; k++) expect(lv.x[k]).toBe(ref2[k]);
+      }
+    });
+  }
 
   it("'auto' picks it on the coarse levels of a uniform grid and keeps lines on stretched cells", () => {
     const uni = setupHierarchy(uniformMicrostrip(257).op);
