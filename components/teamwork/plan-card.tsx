@@ -15,6 +15,15 @@ interface Billing {
   invoices: { id: string; number: string | null; amount: number; currency: string; status: string | null; created: string }[];
 }
 
+/** An invoice amount in minor units as money ("€29.00"); an unknown currency code as "29.00 XYZ". */
+function money(minor: number, currency: string): string {
+  try {
+    return new Intl.NumberFormat('en', { style: 'currency', currency: currency.toUpperCase() }).format(minor / 100);
+  } catch {
+    return `${(minor / 100).toFixed(2)} ${currency.toUpperCase()}`;
+  }
+}
+
 /** Settings → Plan (owners): current plan, usage against its limits, upgrade, billing portal, invoices. */
 export function PlanCard({ workspaceId, notice }: { workspaceId: string; notice?: 'success' | 'cancelled' }) {
   const q = useQuery({ queryKey: ['billing', workspaceId], queryFn: () => apiFetch<Billing>(`/api/workspaces/${workspaceId}/billing`) });
@@ -49,7 +58,9 @@ export function PlanCard({ workspaceId, notice }: { workspaceId: string; notice?
         }
       />
       <div className="space-y-3 px-5 py-4 text-sm">
-        {notice === 'success' ? <Alert tone="success">Payment received. The plan changes as soon as the payment service confirms it.</Alert> : null}
+        {notice === 'success' ? (
+          <Alert tone="success">{b?.plan === 'team' ? 'Payment received. The workspace is on the Team plan.' : 'Payment received. The plan changes as soon as the payment service confirms it.'}</Alert>
+        ) : null}
         {notice === 'cancelled' ? <Alert tone="info">Checkout was cancelled; nothing was charged.</Alert> : null}
         {go.isError ? <Alert tone="danger">{errorMessage(go.error)}</Alert> : null}
         {q.isError ? <Alert tone="danger">{errorMessage(q.error)}</Alert> : null}
@@ -66,23 +77,31 @@ export function PlanCard({ workspaceId, notice }: { workspaceId: string; notice?
               </dd>
             </dl>
             {b.invoices.length ? (
-              <table className="w-full max-w-xl text-left" data-testid="invoices">
-                <caption className="pb-1 text-left font-medium text-ink-soft">Invoices</caption>
-                <tbody className="divide-y divide-line">
-                  {b.invoices.map((i) => (
-                    <tr key={i.id} data-testid="invoice">
-                      <td className="py-1.5">{i.number ?? i.id}</td>
-                      <td className="py-1.5 text-ink-muted">{i.created.slice(0, 10)}</td>
-                      <td className="num py-1.5">
-                        {(i.amount / 100).toFixed(2)} {i.currency.toUpperCase()}
-                      </td>
-                      <td className="py-1.5">
-                        <Badge tone={i.status === 'paid' ? 'success' : 'neutral'}>{i.status ?? '—'}</Badge>
-                      </td>
+              <div className="max-w-xl overflow-x-auto">
+                <table className="w-full text-left tabular-nums" data-testid="invoices">
+                  <caption className="pb-1 text-left font-medium text-ink-soft">Invoices</caption>
+                  <thead>
+                    <tr className="border-b border-line text-xs text-ink-muted">
+                      <th scope="col" className="py-1.5 pr-4 font-medium">Invoice</th>
+                      <th scope="col" className="py-1.5 pr-4 font-medium">Date</th>
+                      <th scope="col" className="py-1.5 pr-4 text-right font-medium">Amount</th>
+                      <th scope="col" className="py-1.5 font-medium">Status</th>
                     </tr>
-                  ))}
-                </tbody>
-              </table>
+                  </thead>
+                  <tbody className="divide-y divide-line">
+                    {b.invoices.map((i) => (
+                      <tr key={i.id} data-testid="invoice">
+                        <td className="py-1.5 pr-4 whitespace-nowrap">{i.number ?? i.id}</td>
+                        <td className="py-1.5 pr-4 whitespace-nowrap text-ink-muted">{i.created.slice(0, 10)}</td>
+                        <td className="py-1.5 pr-4 text-right whitespace-nowrap">{money(i.amount, i.currency)}</td>
+                        <td className="py-1.5">
+                          <Badge tone={i.status === 'paid' ? 'success' : 'neutral'}>{i.status ?? '—'}</Badge>
+                        </td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
             ) : (
               <p className="text-ink-muted">No invoices yet.</p>
             )}

@@ -73,13 +73,17 @@ function esc(s: string) {
   return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
+/** A Unix time in seconds as an ISO day (UTC). */
+const day = (t: number) => (Number.isFinite(t) ? new Date(t * 1000).toISOString().slice(0, 10) : '—');
+
 function page(title: string, body: string) {
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)}</title><meta name="viewport" content="width=device-width,initial-scale=1">
 <style>body{font-family:system-ui,sans-serif;background:#f4f6f5;color:#141d23;margin:0}main{max-width:440px;margin:8vh auto;background:#fff;border:1px solid #dbe0df;border-radius:10px;padding:28px;box-shadow:0 1px 3px #0001}
 h1{font-size:20px;margin:0 0 4px}.muted{color:#5a676d;font-size:14px}.price{font-size:32px;font-weight:600;margin:18px 0}.row{display:flex;gap:10px;margin-top:22px}
 button,a.btn{font:inherit;font-weight:600;padding:10px 16px;border-radius:6px;border:1px solid #b9c2c3;background:#fff;color:#141d23;text-decoration:none;cursor:pointer}
 button.primary{background:#2f5e80;border-color:#2f5e80;color:#fff}.note{margin-top:22px;font-size:12px;color:#5a676d;border-top:1px solid #dbe0df;padding-top:12px}
-table{width:100%;border-collapse:collapse;font-size:14px;margin-top:12px}td{padding:6px 0;border-bottom:1px solid #eceff0}</style></head>
+table{width:100%;border-collapse:collapse;font-size:14px;margin-top:12px;font-variant-numeric:tabular-nums}th{text-align:left;font-size:12px;font-weight:600;color:#5a676d;padding:6px 0;border-bottom:1px solid #dbe0df}
+td{padding:6px 0;border-bottom:1px solid #eceff0}th.r,td.r{text-align:right;padding-left:12px}</style></head>
 <body><main>${body}<p class="note">Test payment service bundled with Edgefield for demos and tests. No card is charged and no money moves.</p></main></body></html>`;
 }
 
@@ -266,8 +270,14 @@ ${s.status === 'complete' ? '<p><strong>Already paid.</strong></p>' : ''}
         200,
         page(
           'Billing',
-          `<p class="muted">Edgefield</p><h1>Billing</h1><p class="muted">${active ? 'Team plan, active' : 'No active subscription'}</p>
-<table>${invs.map((i) => `<tr><td>${esc(String(i.number))}</td><td>€${(Number(i.amount_paid) / 100).toFixed(2)}</td><td>${esc(String(i.status))}</td></tr>`).join('')}</table>
+          `<p class="muted">Edgefield</p><h1>Billing</h1><p class="muted">${active ? `Team plan, active · renews ${day(Number(active.current_period_end))}` : 'No active subscription'}</p>
+${
+  invs.length
+    ? `<table data-testid="fake-portal-invoices"><thead><tr><th>Invoice</th><th>Date</th><th class="r">Amount</th><th class="r">Status</th></tr></thead><tbody>${invs
+        .map((i) => `<tr><td>${esc(String(i.number))}</td><td>${day(Number(i.created))}</td><td class="r">€${(Number(i.amount_paid) / 100).toFixed(2)}</td><td class="r">${esc(String(i.status))}</td></tr>`)
+        .join('')}</tbody></table>`
+    : '<p class="muted">No invoices yet.</p>'
+}
 <div class="row">${active ? `<form method="post" action="/portal/${esc(String(s.id))}/cancel"><button type="submit" data-testid="fake-portal-cancel">Cancel subscription</button></form>` : ''}<a class="btn" href="${esc(String(s.return_url))}">Back to Edgefield</a></div>`,
         ),
       );

@@ -139,4 +139,64 @@ test('plans: a forged webhook is refused; upgrading through the test checkout ma
   await expect(card).toHaveAttribute('data-plan', 'team');
   await expect(page.getByTestId('invoice')).toHaveCount(1);
   await expect(page.getByTestId('plan-usage')).toContainText('of 10000');
+
+  // The invoices list: a header row, the amount as money; the test portal lists the same invoice and day.
+  await expect(page.getByTestId('invoices').locator('thead')).toContainText('Amount');
+  const invoice = page.getByTestId('invoice').first();
+  await expect(invoice).toContainText(/€\d+\.\d\d/);
+  const day = (await invoice.locator('td').nth(1).innerText()).trim();
+  expect(day).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+  await page.getByTestId('plan-portal').click();
+  const portal = page.getByTestId('fake-portal-invoices');
+  await expect(portal).toBeVisible({ timeout: 30_000 });
+  await expect(portal.locator('thead')).toContainText('Date');
+  await expect(portal.locator('tbody tr')).toHaveCount(1);
+  await expect(portal.locator('tbody tr')).toContainText(day);
+});
+
+test('a public read-only link to a section opens signed out, with the drawing and its key', async ({ page, browser }) => {
+  const workspaceId = await signInAs(page, 'owner');
+  const content = {
+    format: 'edgefield.section/1',
+    title: 'Shared pad pair',
+    units: 'mm',
+    variables: { w: 1.5, d: 0.4 },
+    materials: [{ id: 'film', name: 'Polyimide film', epsR: 3.4 }],
+    nets: [
+      { name: 'pad', role: 'signal' },
+      { name: 'shield', role: 'ground' },
+    ],
+    shapes: [
+      { id: 'gap', type: 'rect', x: '-w/2', y: 0, width: 'w', height: 'd', dielectric: 'film' },
+      { id: 'lower', type: 'strip', x1: '-w/2', y1: 0, x2: 'w/2', y2: 0, conductor: 'shield' },
+      { id: 'upper', type: 'strip', x1: '-w/2', y1: 'd', x2: 'w/2', y2: 'd', conductor: 'pad' },
+    ],
+  };
+  const name = unique('Shared pad pair');
+  const made = await page.request.post(`/api/workspaces/${workspaceId}/sections`, { data: { name, description: 'Pads over a shield, for review.', content } });
+  expect(made.status(), await made.text()).toBe(201);
+  const mj = (await made.json()) as { section?: { id: string }; id?: string };
+  const sectionId = mj.section?.id ?? mj.id;
+  expect((await page.request.put(`/api/workspaces/${workspaceId}/public-links`, { data: { allow: true } })).status()).toBe(200);
+  try {
+    const link = await page.request.post(`/api/workspaces/${workspaceId}/share-links`, { data: { targetType: 'section', targetId: sectionId, expiresInDays: 7 } });
+    expect(link.status(), await link.text()).toBe(201);
+    const url = ((await link.json()) as { link: { url: string } }).link.url;
+    const anon = await browser.newContext();
+    const p = await anon.newPage();
+    await p.goto(new URL(url).pathname);
+    await expect(p.getByTestId('shared-page')).toHaveAttribute('data-status', 'ok');
+    await expect(p.getByTestId('shared-title')).toHaveText(name);
+    await expect(p.getByTestId('shared-sketch')).toBeVisible();
+    const key = p.getByTestId('shared-key');
+    await expect(key).toContainText('pad');
+    await expect(key).toContainText('shield');
+    await expect(key).toContainText('Polyimide film');
+    await expect(key).toContainText('εr 3.4');
+    await expect(key).toContainText('w = 1.5 mm');
+    await expect(p.getByText('Pads over a shield, for review.')).toBeVisible();
+    await anon.close();
+  } finally {
+    await page.request.put(`/api/workspaces/${workspaceId}/public-links`, { data: { allow: false } });
+  }
 });

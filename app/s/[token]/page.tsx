@@ -5,7 +5,8 @@ import { Alert } from '@/components/ui/alert';
 import { Card, CardHeader } from '@/components/ui/card';
 import { SectionSketch } from '@/components/teamwork/section-sketch';
 import type { SectionResult } from '@/lib/engine/types';
-import { sectionSchema } from '@/lib/section/schema';
+import { resolveSection } from '@/lib/section/resolve';
+import { sectionSchema, type Section } from '@/lib/section/schema';
 import { getSessionUser } from '@/lib/server/session';
 import { openShareLink } from '@/lib/server/share';
 import { MaxwellTable, formatPf } from '@/components/results/maxwell-table';
@@ -68,13 +69,23 @@ function SharedBody({ open }: { open: Extract<Awaited<ReturnType<typeof openShar
         <h1 className="text-2xl font-semibold text-ink" data-testid="shared-title">
           {title}
         </h1>
+        {t.type === 'section' && t.description ? <p className="mt-1 max-w-prose text-sm text-ink-soft">{t.description}</p> : null}
         <p className="text-sm text-ink-muted">
           {t.type === 'section' ? `Revision r${t.revisionNumber ?? '—'}` : `Revision r${t.revisionNumber}, solved ${t.createdAt.toISOString().slice(0, 16).replace('T', ' ')} UTC${t.author ? ` by ${t.author}` : ''}`}
         </p>
       </div>
       <Card>
         <CardHeader title="Cross-section" description={parsed.success ? `${parsed.data.shapes.length} shapes, units ${parsed.data.units}` : undefined} />
-        <div className="p-4">{parsed.success ? <SectionSketch section={parsed.data} label={`Drawing of ${title}`} data-testid="shared-sketch" /> : <p className="text-sm text-ink-muted">No drawing.</p>}</div>
+        <div className="p-4">
+          {parsed.success ? (
+            <>
+              <SectionSketch section={parsed.data} label={`Drawing of ${title}`} data-testid="shared-sketch" />
+              <SketchKey section={parsed.data} />
+            </>
+          ) : (
+            <p className="text-sm text-ink-muted">No drawing.</p>
+          )}
+        </div>
       </Card>
       {result ? (
         <Card data-testid="shared-result">
@@ -95,5 +106,61 @@ function SharedBody({ open }: { open: Extract<Awaited<ReturnType<typeof openShar
         </Card>
       ) : null}
     </>
+  );
+}
+
+/** The colours SectionSketch fills with (components/teamwork/section-sketch.tsx). */
+const KEY_COLOURS = { signal: '#d5773b', ground: '#68767b', dielectric: '#d9e7f0' } as const;
+
+function Swatch({ colour }: { colour: string }) {
+  return <span aria-hidden className="inline-block size-3 shrink-0 rounded-sm border border-line-strong" style={{ background: colour }} />;
+}
+
+/** What the sketch's colours mean, and the named dimensions and materials, read-only. */
+function SketchKey({ section }: { section: Section }) {
+  const r = resolveSection(section);
+  const resolved = r.ok ? r.section : r.partial;
+  const unit = section.units === 'um' ? 'µm' : section.units;
+  const vars = Object.entries(resolved.variables ?? {});
+  const num = (v: number) => String(Number(v.toPrecision(6)));
+  return (
+    <dl className="mt-3 grid grid-cols-[auto_1fr] gap-x-4 gap-y-1.5 text-sm" data-testid="shared-key">
+      <dt className="text-ink-muted">Nets</dt>
+      <dd className="flex flex-wrap gap-x-4 gap-y-1">
+        {resolved.nets.map((n) => (
+          <span key={n.name} className="inline-flex items-center gap-1.5">
+            <Swatch colour={n.role === 'ground' ? KEY_COLOURS.ground : KEY_COLOURS.signal} />
+            <span className="font-medium text-ink">{n.name}</span>
+            <span className="text-ink-muted">{n.role}</span>
+          </span>
+        ))}
+      </dd>
+      {resolved.materials.length ? (
+        <>
+          <dt className="text-ink-muted">Dielectrics</dt>
+          <dd className="flex flex-wrap gap-x-4 gap-y-1">
+            {resolved.materials.map((m) => (
+              <span key={m.id} className="inline-flex items-center gap-1.5">
+                <Swatch colour={KEY_COLOURS.dielectric} />
+                <span className="font-medium text-ink">{m.name}</span>
+                <span className="text-ink-muted tabular-nums">εr {num(m.epsR)}</span>
+              </span>
+            ))}
+          </dd>
+        </>
+      ) : null}
+      {vars.length ? (
+        <>
+          <dt className="text-ink-muted">Dimensions</dt>
+          <dd className="flex flex-wrap gap-x-4 gap-y-1 tabular-nums text-ink">
+            {vars.map(([k, v]) => (
+              <span key={k}>
+                {k} = {num(v)} {unit}
+              </span>
+            ))}
+          </dd>
+        </>
+      ) : null}
+    </dl>
   );
 }
