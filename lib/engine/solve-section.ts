@@ -82,9 +82,20 @@ export function twoTerminalCapacitance(maxwell: number[][], i: number, j: number
   return (cii * cjj - cij * cij) / (cii + cjj + 2 * cij);
 }
 
-/** Mutual (branch) form of a Maxwell matrix. */
-export function mutualForm(maxwell: number[][]): number[][] {
-  return maxwell.map((row, i) => row.map((v, j) => (i === j ? row.reduce((a, b) => a + b, 0) : -v)));
+/**
+ * Mutual (branch) form of a Maxwell matrix. A net shielded from the reference (a core inside
+ * another signal net's ring) has a capacitance to the reference of exactly 0, which the solve
+ * gives as ±(round-off of the linear solves): a negative row sum no larger than `zeroWithin`
+ * × C_ii (the estimated relative error) is reported as 0, never as a negative capacitance.
+ */
+export function mutualForm(maxwell: number[][], zeroWithin = 0): number[][] {
+  return maxwell.map((row, i) =>
+    row.map((v, j) => {
+      if (i !== j) return -v;
+      const sum = row.reduce((a, b) => a + b, 0);
+      return sum < 0 && -sum <= zeroWithin * v ? 0 : sum;
+    }),
+  );
 }
 
 export function lineValues(c: number, c0: number): LineValues {
@@ -138,7 +149,7 @@ export function buildResult(
     format: RESULT_FORMAT,
     reference,
     nets,
-    capacitance: { maxwell: sol.maxwell, mutual: mutualForm(sol.maxwell), vacuum: sol.vacuum },
+    capacitance: { maxwell: sol.maxwell, mutual: mutualForm(sol.maxwell, sol.error.relative), vacuum: sol.vacuum },
     errorEstimate: {
       relative: sol.error.relative,
       perEntry: sol.error.perEntry,

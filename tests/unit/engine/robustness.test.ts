@@ -22,7 +22,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { CholeskyDecomposition, Matrix } from 'ml-matrix';
-import { solveSection } from '@/lib/engine/solve-section';
+import { mutualForm, solveSection } from '@/lib/engine/solve-section';
 import type { SectionResult } from '@/lib/engine/types';
 import { parseSectionValue } from '@/lib/section/parse';
 import type { Section } from '@/lib/section/schema';
@@ -211,6 +211,13 @@ function check(section: Section, result: SectionResult): void {
   expect(err).toBeGreaterThanOrEqual(0);
   expect(Number.isFinite(err)).toBe(true);
 
+  // Diagonal dominance: each net's capacitance to the reference (the row sum) is ≥ 0 within the
+  // estimated error (Paul 2008, ch. 3), and the mutual form, which reports it, has no negative entry.
+  result.capacitance.maxwell.forEach((row, i) => {
+    expect(row.reduce((a, b) => a + b, 0), `row sum ${i}`).toBeGreaterThanOrEqual(-err * row[i]!);
+  });
+  for (const row of result.capacitance.mutual) for (const v of row) expect(v).toBeGreaterThanOrEqual(0);
+
   // No hang: every linear solve converged within its cap; the total is bounded by the caps
   // (one solve per signal net on each mesh of the family, twice with a vacuum pass).
   const solves = FAMILY_LEVELS * n * 2;
@@ -231,6 +238,50 @@ function check(section: Section, result: SectionResult): void {
     expect(result.line).toBeUndefined();
   }
 }
+
+describe('a net shielded from the reference', () => {
+  it('a core inside another signal net\'s ring: its capacitance to the reference is 0, not a negative round-off', () => {
+    // The core's field ends on the ring, so it carries no charge when every signal net is at
+    // 1 V: C_core,core + C_core,ring = 0 (Gauss's law; common practice, no published source).
+    const section: Section = {
+      format: 'edgefield.section/1',
+      units: 'mm',
+      background: { epsR: 1 },
+      materials: [],
+      nets: [
+        { name: 'core', role: 'signal' },
+        { name: 'shield', role: 'signal' },
+      ],
+      shapes: [
+        { id: 'core', type: 'circle', cx: 0, cy: 1, r: 0.2, conductor: 'core' },
+        { id: 'shield', type: 'ring', cx: 0, cy: 1, rInner: 0.5, rOuter: 0.6, conductor: 'shield' },
+      ],
+      boundary: { left: { type: 'open' }, right: { type: 'open' }, bottom: { type: 'ground', at: 0 }, top: { type: 'open' } },
+      mesh: { preset: 'quick' },
+    };
+    const { result } = solveSection(section);
+    check(section, result);
+    const m = result.capacitance.maxwell;
+    const err = result.errorEstimate.relative;
+    expect(Math.abs(m[0]![0]! + m[0]![1]!)).toBeLessThanOrEqual(err * m[0]![0]!);
+    const mutual = result.capacitance.mutual;
+    expect(mutual[0]![0]).toBeGreaterThanOrEqual(0);
+    expect(mutual[0]![0]).toBeLessThanOrEqual(err * m[0]![0]!);
+    expect(mutual[0]![1]).toBe(-m[0]![1]!);
+    expect(mutual[1]![1]).toBeGreaterThan(0);
+  });
+
+  it('mutualForm reports a negative row sum within the stated error as 0, and keeps a larger one', () => {
+    const m = [
+      [2, -2.000001],
+      [-2.000001, 5],
+    ];
+    expect(mutualForm(m, 1e-6)[0]![0]).toBe(0);
+    expect(mutualForm(m, 0)[0]![0]).toBeCloseTo(-1e-6, 12);
+    expect(mutualForm(m, 1e-7)[0]![0]).toBeCloseTo(-1e-6, 12);
+    expect(mutualForm(m, 1e-6)[1]).toEqual([2.000001, 5 - 2.000001]);
+  });
+});
 
 describe('solver robustness over random valid sections (quick preset)', () => {
   it(`${RUNS} random sections: finite results, a Maxwell matrix of the right signs, bounded iterations`, () => {
