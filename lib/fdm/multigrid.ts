@@ -417,9 +417,10 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     rp: new Float64Array(padLen),
     pp: new Float64Array(padLen),
     qp: new Float64Array(padLen),
-    fc: padded(op.c, off0, false) as Float64Array,
-    fw: padded(op.w, off0, false) as Float64Array,
-    fs: padded(op.s, off0, false) as Float64Array,
+    // in double storage level 0 already holds these arrays
+    fc: single ? (padded(op.c, off0, false) as Float64Array) : (levels[0].c as Float64Array),
+    fw: single ? (padded(op.w, off0, false) as Float64Array) : (levels[0].w as Float64Array),
+    fs: single ? (padded(op.s, off0, false) as Float64Array) : (levels[0].s as Float64Array),
     precision: single ? 'single' : 'double',
     gridComplexity: nodes / size,
   };
