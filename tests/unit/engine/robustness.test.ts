@@ -305,7 +305,8 @@ describe('solver robustness over random valid sections (quick preset)', () => {
     );
     // most random choices leave something to solve, and the runs covered every kind of input
     expect(solved).toBeGreaterThanOrEqual(RUNS / 2);
-    if (RUNS >= 24) {
+    // (for the fixed seed and run count; other seeds explore and may miss a kind)
+    if (!process.env.EDGEFIELD_FC_SEED && !process.env.EDGEFIELD_FC_RUNS) {
       expect([...seen].sort()).toEqual(
         ['boundary ground', 'boundary mirror', 'boundary open', 'dielectric layer', 'εr above 10', 'several signal nets', 'shape circle', 'shape polygon', 'shape rect', 'shape ring', 'shape strip'].sort(),
       );
