@@ -9,6 +9,7 @@
  *
  * Exit codes: 0 written, 2 bad arguments or file, 3 the data folder is in use, 1 other errors.
  */
+import fs from 'node:fs';
 import path from 'node:path';
 import { openPglite, openPostgres, type DbHandle } from '@/db/client';
 import { DataDirLockedError, getDataDir } from '@/lib/server/data-dir';
@@ -24,9 +25,15 @@ const file = path.resolve(args[0]!);
 let handle: DbHandle | undefined;
 try {
   const url = process.env.DATABASE_URL;
+  const folder = path.join(getDataDir(), 'pglite');
+  if (!url && !fs.existsSync(path.join(folder, 'PG_VERSION'))) {
+    throw new BackupError(
+      `There is no embedded database at ${folder}. Set EDGEFIELD_DATA_DIR to the app's data folder (or DATABASE_URL for a PostgreSQL server).`,
+    );
+  }
   handle = url
     ? await openPostgres(url, { migrate: false })
-    : await openPglite(path.join(getDataDir(), 'pglite'), { lockDir: getDataDir(), migrate: false });
+    : await openPglite(folder, { lockDir: getDataDir(), migrate: false });
   const t = Date.now();
   const { rows, bytes } = await writeBackup(handle, file);
   const total = Object.values(rows).reduce((a, b) => a + b, 0);

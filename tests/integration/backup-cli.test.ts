@@ -131,6 +131,12 @@ describe('npm run backup / restore', () => {
       await check.close();
     }
 
+    // A data folder without a database: backup says so and creates nothing.
+    const nowhere = await npmRun('backup', path.join(tmp, 'x.gz'), { dataDir: path.join(tmp, 'typo') });
+    expect(nowhere.code).toBe(2);
+    expect(nowhere.stderr).toMatch(/There is no embedded database at .*typo/);
+    expect(fs.existsSync(path.join(tmp, 'typo'))).toBe(false);
+
     // Usage: exit 2 with the reason, and a missing file creates no data folder.
     expect((await npmRun('restore', '', { dataDir })).code).toBe(2);
     const missing = await npmRun('restore', path.join(tmp, 'nothing-here.gz'), { dataDir: path.join(tmp, 'other') });
