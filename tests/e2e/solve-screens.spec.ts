@@ -41,6 +41,33 @@ for (const width of [1440, 1024]) {
     await page.screenshot({ path: `${OUT}/${width}-section-solved.png` });
     await page.getByRole('complementary', { name: 'Section properties' }).screenshot({ path: `${OUT}/${width}-results-side.png` });
 
+    // the summary at the top of the results panel: line values, loss, peak field with the caution
+    const summary = page.getByTestId('results-side').getByTestId('results-summary');
+    await expect(summary.getByTestId('summary-z0')).toContainText('Ω');
+    await expect(summary.getByTestId('summary-delay')).toContainText('ps/mm');
+    await expect(summary.getByTestId('summary-alpha')).toContainText('dB/m', { timeout: 60_000 });
+    await expect(summary.getByTestId('summary-peak-value')).toContainText('kV/mm');
+    await expect(summary.getByTestId('summary-peak-where')).toContainText('mm');
+    await expect(summary.getByTestId('summary-margin')).toContainText('×');
+    await expect(summary.getByTestId('summary-margin-where')).toContainText('kV/mm');
+    await expect(summary.getByTestId('summary-caution')).toContainText('IEC 60664-1');
+    // bad input names the field and keeps the last values
+    const alpha = await summary.getByTestId('summary-alpha').innerText();
+    await summary.getByTestId('summary-frequency').fill('abc');
+    await expect(summary.getByTestId('summary-input-error')).toContainText('Frequency');
+    await expect(summary.getByTestId('summary-alpha')).toHaveText(alpha);
+    // a higher frequency gives a higher loss
+    await summary.getByTestId('summary-frequency').fill('10');
+    await expect(summary.getByTestId('summary-input-error')).toHaveCount(0);
+    await expect(summary.getByTestId('summary-alpha')).not.toHaveText(alpha, { timeout: 60_000 });
+    const dbPerM = (t: string) => Number(/([\d.]+) dB\/m/.exec(t)?.[1] ?? NaN);
+    expect(dbPerM(await summary.getByTestId('summary-alpha').innerText())).toBeGreaterThan(dbPerM(alpha));
+    await noHorizontalOverflow(page);
+    await summary.screenshot({ path: `${OUT}/${width}-results-summary.png` });
+    // the link to the detailed card
+    await summary.getByTestId('results-summary-details').click();
+    await expect(page.getByTestId('analysis-card')).toBeInViewport();
+
     const card = page.getByTestId('field-card');
     await card.scrollIntoViewIfNeeded();
     for (const mode of ['potential', 'field', 'lines', 'mesh'] as const) {
