@@ -18,12 +18,15 @@ export interface ChartSeries {
 }
 
 const COLOURS = ['#0f766e', '#b45309', '#6d28d9', '#64748b', '#be123c', '#1d4ed8', '#4d7c0f'];
-/** A hollow diamond marker with a test id; recharts passes the point's pixel centre. */
+/**
+ * A hollow diamond marker with a test id; recharts passes the point's pixel centre. Drawn above
+ * the solved curve's dots (zIndex 700 > recharts' 600 for dots), unfilled so a dot it covers shows.
+ */
 function diamond(colour: string, testId: string | undefined) {
   function DiamondMarker({ cx, cy }: ScatterShapeProps) {
     if (cx === undefined || cy === undefined) return <g />;
     const r = 5;
-    return <path d={`M${cx},${cy - r}L${cx + r},${cy}L${cx},${cy + r}L${cx - r},${cy}Z`} fill="#ffffff" stroke={colour} strokeWidth={2} data-testid={testId} />;
+    return <path d={`M${cx},${cy - r}L${cx + r},${cy}L${cx},${cy + r}L${cx - r},${cy}Z`} fill="none" stroke={colour} strokeWidth={2} data-testid={testId} />;
   }
   return DiamondMarker;
 }
@@ -45,7 +48,6 @@ export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series
               dataKey="x"
               scale={logX ? 'log' : 'linear'}
               domain={[Math.min(...xs), Math.max(...xs)]}
-              allowDataOverflow
               padding={{ left: 8, right: 8 }}
               tickFormatter={fmt}
               label={{ value: xLabel, position: 'insideBottom', offset: -12, fontSize: 12 }}
@@ -65,6 +67,7 @@ export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series
                   legendType="diamond"
                   shape={diamond(s.colour ?? COLOURS[i % COLOURS.length]!, s.testId)}
                   className="measured-series"
+                  zIndex={700}
                   isAnimationActive={false}
                 />
               ) : (

@@ -157,7 +157,7 @@ test('measured sets on a sweep chart: units converted, a legend entry and a togg
   expect(names).toEqual(['bench-width.csv', 'gap-series.csv']);
 });
 
-test('a viewer sees measured sets but is not offered the upload', async ({ page }) => {
+test('a viewer is not offered the upload of measured data on the sweep card', async ({ page }) => {
   const workspaceId = await signInAs(page, 'viewer');
   const list = await page.request.get(`/api/workspaces/${workspaceId}/sections`);
   const j = (await list.json()) as { sections?: { id: string }[] } | { id: string }[];
