@@ -534,6 +534,17 @@ function matvecDot(h: Hierarchy, x: Float64Array, out: Float64Array): number {
 }
 
 /**
+ * out = A x with the product CG uses inside `solve` (symmetric-half storage, padded vectors of
+ * length nx*ny + 2*levels[0].off with the grid at offset levels[0].off); returns x·out. For
+ * benchmarks that compare the solve with one product of this kind. Writes out inside the grid.
+ */
+export function fineProduct(h: Hierarchy, x: Float64Array, out: Float64Array): number {
+  const len = h.nx * h.ny + 2 * h.levels[0].off;
+  if (x.length !== len || out.length !== len) throw new RangeError(`fineProduct: padded vectors must have length ${len}`);
+  return matvecDot(h, x, out);
+}
+
+/**
  * p = z + beta·p, then out = A p with the double-precision fine operator; returns p·out. One
  * pass: row j+1 of p is updated just before row j of the product needs it. Writes p and out
  * inside the grid.

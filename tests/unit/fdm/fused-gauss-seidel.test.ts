@@ -5,7 +5,8 @@
  * straightforward versions, symmetry of the preconditioner, convergence.
  */
 import { describe, expect, it } from 'vitest';
-import { applyPreconditioner, setupHierarchy, solve } from '../../../lib/fdm/multigrid';
+import { applyPreconditioner, fineProduct, setupHierarchy, solve } from '../../../lib/fdm/multigrid';
+import { applyOperator } from '../../../lib/fdm/operator';
 import {
   gaussSeidelResidualRestrict,
   interpolateAdd,
@@ -184,4 +185,25 @@ describe('lexicographic Gauss–Seidel on coarse levels', () => {
       expect(res.convergenceFactor).toBeLessThanOrEqual(0.15);
     });
   }
+});
+
+describe('fineProduct (the product CG uses, for benchmarks)', () => {
+  it('equals applyOperator on the padded symmetric-half storage, in both precisions of the hierarchy', () => {
+    const sys = hardSystem(41, 30, { maxRatio: 5 });
+    for (const precision of ['single', 'double'] as const) {
+      const h = setupHierarchy(sys.op, { coarsestNodes: 16, precision });
+      const off = h.levels[0].off, size = sys.rhs.length;
+      const x = Float64Array.from({ length: size }, (_, k) => Math.cos(0.9 * k));
+      const xp = new Float64Array(size + 2 * off), out = new Float64Array(size + 2 * off);
+      xp.set(x, off);
+      const ref = new Float64Array(size);
+      applyOperator(sys.op, x, ref);
+      const d = fineProduct(h, xp, out);
+      const scale = Math.max(...Array.from(ref, Math.abs));
+      // the CG product is double precision whatever the hierarchy's storage: round-off only (common practice, no published source)
+      for (let k = 0; k < size; k++) expect(Math.abs(out[k + off] - ref[k])).toBeLessThanOrEqual(1e-13 * scale);
+      expect(Math.abs(d - ref.reduce((s, v, k) => s + v * x[k], 0))).toBeLessThanOrEqual(1e-10 * Math.abs(d));
+      expect(() => fineProduct(h, x, ref)).toThrow(RangeError);
+    }
+  });
 });
