@@ -15,7 +15,7 @@ export interface CutPlotProps {
 
 const W = 640;
 const H = 200;
-const PAD = { l: 56, r: 72, t: 14, b: 34 };
+const PAD = { l: 66, r: 72, t: 14, b: 34 };
 
 function extent(a: Float64Array): [number, number] {
   let lo = Infinity;
@@ -79,7 +79,7 @@ export function CutPlot({ samples, unit, unitLabel, volts }: CutPlotProps) {
         {ticks.map((t) => (
           <g key={t}>
             <text x={PAD.l - 6} y={fyP(pLo + t * (pHi - pLo)) + 4} textAnchor="end" fontSize="11" fill="var(--color-copper-700)">
-              {sig(pLo + t * (pHi - pLo), 3)}
+              {sig(pLo + t * (pHi - pLo), 3)} V
             </text>
             <text x={W - PAD.r + 6} y={fyE(t * eHi) + 4} fontSize="11" fill="var(--color-steel-700)">
               {withPrefix(t * eHi, 'V/m', 3)}
@@ -89,9 +89,6 @@ export function CutPlot({ samples, unit, unitLabel, volts }: CutPlotProps) {
             </text>
           </g>
         ))}
-        <text x={PAD.l - 6} y={PAD.t - 3} textAnchor="end" fontSize="10" fill="var(--color-copper-700)">
-          V
-        </text>
         <text x={(PAD.l + W - PAD.r) / 2} y={H - 4} textAnchor="middle" fontSize="11" fill="var(--color-ink-soft)">
           distance along the cut ({unitLabel})
         </text>
