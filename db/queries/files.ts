@@ -71,22 +71,29 @@ export async function getSectionFile(workspaceId: string, sectionId: string, fil
   return row ?? null;
 }
 
+/**
+ * Keep a file with a section: the file row and its audit event in one transaction (a nested
+ * one, i.e. a savepoint, when `db` is already a transaction, so an import can store its
+ * section, first revision and original file together).
+ */
 export async function insertSectionFile(
   data: { workspaceId: string; sectionId: string; kind: FileKind; name: string; mediaType: string; data: Uint8Array; uploadedBy: string },
   db?: DbOrTx,
 ) {
   const d = db ?? (await getDb());
-  const [row] = await d
-    .insert(files)
-    .values({ ...data, bytes: data.data.byteLength })
-    .returning({ id: files.id, createdAt: files.createdAt });
-  await insertAuditEvent(d, {
-    workspaceId: data.workspaceId,
-    actorId: data.uploadedBy,
-    action: data.kind === 'measured-csv' ? 'section.measurements' : 'section.import',
-    targetType: 'section',
-    targetId: data.sectionId,
-    data: { fileId: row!.id, name: data.name, kind: data.kind, bytes: data.data.byteLength },
+  return d.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(files)
+      .values({ ...data, bytes: data.data.byteLength })
+      .returning({ id: files.id, createdAt: files.createdAt });
+    await insertAuditEvent(tx, {
+      workspaceId: data.workspaceId,
+      actorId: data.uploadedBy,
+      action: data.kind === 'measured-csv' ? 'section.measurements' : 'section.import',
+      targetType: 'section',
+      targetId: data.sectionId,
+      data: { fileId: row!.id, name: data.name, kind: data.kind, bytes: data.data.byteLength },
+    });
+    return row!;
   });
-  return row!;
 }

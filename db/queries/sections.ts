@@ -183,17 +183,23 @@ export async function listRevisions(workspaceId: string, sectionId: string): Pro
   });
 }
 
-/** Create a section and its first revision in one transaction. */
-export async function insertSection(data: {
-  workspaceId: string;
-  authorId: string | null;
-  name: string;
-  description?: string;
-  content: unknown;
-  message?: string;
-}): Promise<{ section: SectionRow; revision: SectionRevisionRow }> {
-  const db = await getDb();
-  return db.transaction(async (tx) => {
+/**
+ * Create a section and its first revision in one transaction (a nested one, i.e. a
+ * savepoint, when `db` is already a transaction: an import adds its original file to it).
+ */
+export async function insertSection(
+  data: {
+    workspaceId: string;
+    authorId: string | null;
+    name: string;
+    description?: string;
+    content: unknown;
+    message?: string;
+  },
+  db?: DbOrTx,
+): Promise<{ section: SectionRow; revision: SectionRevisionRow }> {
+  const d = db ?? (await getDb());
+  return d.transaction(async (tx) => {
     const [section] = await tx
       .insert(sections)
       .values({

@@ -1,8 +1,9 @@
 import 'server-only';
-import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm';
 import { getDb } from '../client';
 import { sectionRevisions, sections, solves, users, type SolveRow, type SolveStatus } from '../schema';
 import { insertAuditEvent } from './audit';
+import { lockWorkspaceForLimits } from './workspaces';
 
 /** A solve without its field blob. */
 export interface SolveView {
@@ -123,6 +124,12 @@ export type InsertSolveOutcome =
 /**
  * Store a solve of a revision. The same (revisionId, settingsHash) is one solve: when it
  * already exists, nothing is written and the existing one is returned with created=false.
+ *
+ * `checkLimit` (the plan's solve limit) runs inside the same transaction, after the workspace
+ * row is locked (lockWorkspaceForLimits) and before the insert, with the plan and the number
+ * of solves stored: whatever it throws rolls everything back. Concurrent saves of one
+ * workspace are serialised by that lock, so they cannot together exceed the limit. A repeat
+ * of an existing solve is never refused (it stores nothing new).
  */
 export async function insertSolve(data: {
   workspaceId: string;
@@ -133,9 +140,10 @@ export async function insertSolve(data: {
   settingsHash: string;
   result: unknown;
   status: SolveStatus;
-}): Promise<InsertSolveOutcome> {
+}, opts: { checkLimit?: (plan: string, stored: number) => void } = {}): Promise<InsertSolveOutcome> {
   const db = await getDb();
   const outcome = await db.transaction(async (tx) => {
+    const ws = opts.checkLimit ? await lockWorkspaceForLimits(tx, data.workspaceId) : null;
     const [section] = await tx
       .select({ id: sections.id, deletedAt: sections.deletedAt })
       .from(sections)
@@ -149,6 +157,16 @@ export async function insertSolve(data: {
       .where(and(eq(sectionRevisions.id, data.revisionId), eq(sectionRevisions.sectionId, section.id)))
       .limit(1);
     if (!rev) return { ok: false as const, reason: 'revision_not_found' as const };
+    if (opts.checkLimit && ws) {
+      const [dup] = await tx
+        .select({ id: solves.id })
+        .from(solves)
+        .where(and(eq(solves.revisionId, data.revisionId), eq(solves.settingsHash, data.settingsHash)))
+        .limit(1);
+      if (dup) return { ok: true as const, created: false, id: dup.id };
+      const [n] = await tx.select({ n: sql<number>`count(*)::int` }).from(solves).where(eq(solves.workspaceId, data.workspaceId));
+      opts.checkLimit(ws.plan, Number(n?.n ?? 0));
+    }
     const inserted = await tx
       .insert(solves)
       .values({
@@ -198,21 +216,35 @@ export async function getSolveField(workspaceId: string, solveId: string): Promi
   return row.field ?? null;
 }
 
-/** Store (replace) the field blob of a solve, atomically. False when no such solve in this workspace. */
-export async function setSolveField(
+export type StoreFieldOutcome = 'stored' | 'exists' | 'not_found';
+
+/**
+ * Store the field blob of a solve of this workspace, once: a saved solve never changes. The
+ * update is conditional (`field is null`), so of two concurrent uploads exactly one stores
+ * and the other gets 'exists'; 'not_found' when there is no such solve in this workspace. The
+ * field and its audit event commit together.
+ */
+export async function storeSolveField(
   workspaceId: string,
   solveId: string,
   actorId: string | null,
   field: Uint8Array,
-): Promise<boolean> {
+): Promise<StoreFieldOutcome> {
   const db = await getDb();
-  return db.transaction(async (tx) => {
+  return db.transaction(async (tx): Promise<StoreFieldOutcome> => {
     const rows = await tx
       .update(solves)
       .set({ field, fieldBytes: field.byteLength, updatedAt: new Date() })
-      .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+      .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId), isNull(solves.field)))
       .returning({ id: solves.id });
-    if (!rows[0]) return false;
+    if (!rows[0]) {
+      const [there] = await tx
+        .select({ id: solves.id })
+        .from(solves)
+        .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+        .limit(1);
+      return there ? 'exists' : 'not_found';
+    }
     await insertAuditEvent(tx, {
       workspaceId,
       actorId,
@@ -221,8 +253,13 @@ export async function setSolveField(
       targetId: solveId,
       data: { bytes: field.byteLength },
     });
-    return true;
+    return 'stored';
   });
+}
+
+/** storeSolveField as a yes/no: true when stored now; false when no such solve or it already holds a field. */
+export async function setSolveField(workspaceId: string, solveId: string, actorId: string | null, field: Uint8Array): Promise<boolean> {
+  return (await storeSolveField(workspaceId, solveId, actorId, field)) === 'stored';
 }
 
 export type { SolveRow };

@@ -50,6 +50,24 @@ export async function getWorkspaceCounts(workspaceId: string) {
   return { sections: s?.n ?? 0, solves: v?.n ?? 0, members: m?.n ?? 0 };
 }
 
+/**
+ * Inside a transaction: lock the workspace row so that writes checked against the plan's
+ * limits (stored solves, members + pending invitations) are serialised per workspace, and
+ * return its plan read under that lock; null when there is no such workspace. The lock is
+ * FOR NO KEY UPDATE (PGlite and PostgreSQL): two limit checks of one workspace wait for each
+ * other, while foreign-key checks of other writes (KEY SHARE on the workspace row) do not
+ * wait, so a revision save and a solve save of one workspace cannot deadlock.
+ */
+export async function lockWorkspaceForLimits(tx: DbOrTx, workspaceId: string): Promise<{ plan: string } | null> {
+  const [row] = await tx
+    .select({ plan: workspaces.plan })
+    .from(workspaces)
+    .where(eq(workspaces.id, workspaceId))
+    .for('no key update')
+    .limit(1);
+  return row ?? null;
+}
+
 export async function getMembershipRow(userId: string, workspaceId: string): Promise<{ role: Role } | null> {
   const db = await getDb();
   const [row] = await db

@@ -3,15 +3,14 @@ import 'server-only';
  * Server side of drawing import and measured data (issue 7): the upload is read with a size
  * cap, parsed again on the server with the same readers the dialog used (the browser's
  * preview is never trusted), turned into a checked section, and stored with its original
- * file. Any refusal happens before anything is written.
+ * file. Any refusal happens before anything is written, and the section, its first revision,
+ * the original file and their audit events are stored in one transaction.
  */
 import { getDb } from '@/db/client';
 import { insertSectionFile, type FileKind } from '@/db/queries/files';
 import { insertSection } from '@/db/queries/sections';
-import { sections } from '@/db/schema';
 import { ImportError, MAX_DRAWING_BYTES, drawingToSection, readDrawing } from '@/lib/import';
 import { importRequestSchema } from '@/lib/validations/import';
-import { eq } from 'drizzle-orm';
 import { ApiError, readBodyBytes } from './http';
 
 const FORM_OVERHEAD = 64 * 1024;
@@ -82,29 +81,33 @@ export async function importDrawingAsSection(args: { workspaceId: string; userId
     if (e instanceof ImportError) throw new ApiError(422, 'import_failed', e.message, 'file');
     throw e;
   }
-  const { section, revision } = await insertSection({
-    workspaceId: args.workspaceId,
-    authorId: args.userId,
-    name: parsed.data.name,
-    description: parsed.data.description,
-    content: built.section,
-    message: `Imported from ${name}`,
+  // Section, first revision, original file and their audit events commit together or not at all.
+  const db = await getDb();
+  const { section, revision } = await db.transaction(async (tx) => {
+    const created = await insertSection(
+      {
+        workspaceId: args.workspaceId,
+        authorId: args.userId,
+        name: parsed.data.name,
+        description: parsed.data.description,
+        content: built.section,
+        message: `Imported from ${name}`,
+      },
+      tx,
+    );
+    await insertSectionFile(
+      {
+        workspaceId: args.workspaceId,
+        sectionId: created.section.id,
+        kind,
+        name,
+        mediaType: kind === 'drawing-svg' ? 'image/svg+xml' : 'image/vnd.dxf',
+        data,
+        uploadedBy: args.userId,
+      },
+      tx,
+    );
+    return created;
   });
-  try {
-    await insertSectionFile({
-      workspaceId: args.workspaceId,
-      sectionId: section.id,
-      kind,
-      name,
-      mediaType: kind === 'drawing-svg' ? 'image/svg+xml' : 'image/vnd.dxf',
-      data,
-      uploadedBy: args.userId,
-    });
-  } catch (e) {
-    // Keep "nothing changes on failure": remove the section that has no original file.
-    const db = await getDb();
-    await db.delete(sections).where(eq(sections.id, section.id));
-    throw e;
-  }
   return { sectionId: section.id, revisionId: revision.id, warnings: built.warnings, counts: built.counts };
 }

@@ -8,7 +8,7 @@ import crypto from 'node:crypto';
 import { getDb } from '@/db/client';
 import { INVITATION_TTL_MS, countPendingInvitations, insertInvitation } from '@/db/queries/invitations';
 import { countMembers } from '@/db/queries/members';
-import { getMembershipRow, getWorkspace } from '@/db/queries/workspaces';
+import { getMembershipRow, getWorkspace, lockWorkspaceForLimits } from '@/db/queries/workspaces';
 import { getUserByEmail } from '@/db/queries/users';
 import type { Role } from '@/db/schema';
 import { ApiError } from './http';
@@ -81,9 +81,13 @@ export async function inviteByEmail(args: { workspaceId: string; email: string; 
   const token = newToken();
   const expiresAt = new Date(Date.now() + INVITATION_TTL_MS);
   const inv = await db.transaction(async (tx) => {
+    // The workspace row lock serialises concurrent invitations of one workspace, so together
+    // they cannot pass the member limit; the plan is read under the same lock.
+    const locked = await lockWorkspaceForLimits(tx, workspaceId);
+    if (!locked) throw new ApiError(404, 'not_found', 'The workspace was not found.');
     const members = await countMembers(workspaceId, tx);
     const pending = await countPendingInvitations(workspaceId, tx);
-    await assertMemberLimit(ws.plan, members + pending);
+    await assertMemberLimit(locked.plan, members + pending);
     return insertInvitation({ workspaceId, email, role, tokenHash: hashToken(token), invitedBy: actor.id, expiresAt }, tx);
   });
   const url = `${siteOrigin()}/invite/${token}`;

@@ -29,7 +29,10 @@ export function planOf(id: string | null | undefined): Plan {
   return id === 'team' ? PLANS.team : PLANS.free;
 }
 
-/** Throws 402 when `used` (members + pending invitations) already fills the plan. */
+/**
+ * Throws 402 when `used` (members + pending invitations) already fills the plan. Call it inside
+ * the transaction that stores the invitation, after lockWorkspaceForLimits (db/queries/workspaces.ts).
+ */
 export async function assertMemberLimit(planId: string, used: number): Promise<void> {
   const plan = planOf(planId);
   if (used >= plan.maxMembers) {
@@ -44,7 +47,10 @@ export async function assertMemberLimit(planId: string, used: number): Promise<v
   }
 }
 
-/** Throws 402 when the workspace already stores as many solves as its plan allows. */
+/**
+ * Throws 402 when the workspace already stores as many solves as its plan allows. Called by
+ * insertSolve (db/queries/solves.ts) inside the solve's transaction, under the workspace lock.
+ */
 export function assertSolveLimit(planId: string, stored: number): void {
   const plan = planOf(planId);
   if (stored >= plan.maxSolves) {
@@ -57,25 +63,4 @@ export function assertSolveLimit(planId: string, stored: number): void {
           : 'Delete old solves first.'),
     );
   }
-}
-
-/**
- * Before storing a solve: 402 when the workspace's plan is full. A repeat of an existing
- * solve (same revision and settings) is never refused: it stores nothing new.
- */
-export async function enforceSolveLimit(workspaceId: string, revisionId: string, settingsHash: string): Promise<void> {
-  const { getDb } = await import('@/db/client');
-  const { solves, workspaces } = await import('@/db/schema');
-  const { and, eq, sql } = await import('drizzle-orm');
-  const db = await getDb();
-  const [ws] = await db.select({ plan: workspaces.plan }).from(workspaces).where(eq(workspaces.id, workspaceId)).limit(1);
-  if (!ws) return;
-  const [dup] = await db
-    .select({ id: solves.id })
-    .from(solves)
-    .where(and(eq(solves.workspaceId, workspaceId), eq(solves.revisionId, revisionId), eq(solves.settingsHash, settingsHash)))
-    .limit(1);
-  if (dup) return;
-  const [n] = await db.select({ n: sql<number>`count(*)::int` }).from(solves).where(eq(solves.workspaceId, workspaceId));
-  assertSolveLimit(ws.plan, Number(n?.n ?? 0));
 }

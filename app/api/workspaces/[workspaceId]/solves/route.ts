@@ -1,6 +1,6 @@
 import { insertSolve, listSolves } from '@/db/queries/solves';
 import { requireWorkspaceRole } from '@/lib/server/access';
-import { enforceSolveLimit } from '@/lib/server/plans';
+import { assertSolveLimit } from '@/lib/server/plans';
 import { ApiError, apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx, readParams } from '@/lib/server/http';
 import { createSolveSchema, listSolvesQuerySchema, MAX_SOLVE_BODY_BYTES } from '@/lib/validations/solve';
 
@@ -26,13 +26,13 @@ export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
 
 /**
  * Store a solve (editors). The same (revisionId, settingsHash) is recognised: the existing
- * solve comes back with 200 instead of 201 and nothing is written.
+ * solve comes back with 200 instead of 201 and nothing is written. 402 when the plan's solve
+ * limit is reached (counted under a lock on the workspace row, in the solve's transaction).
  */
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
   const { workspaceId } = await readParams(ctx);
   const { user } = await requireWorkspaceRole(workspaceId, 'editor');
   const body = await parseJsonBody(req, createSolveSchema, { maxBytes: MAX_SOLVE_BODY_BYTES });
-  await enforceSolveLimit(workspaceId, body.revisionId, body.settingsHash); // issue 7: 402 when the plan is full
   const out = await insertSolve({
     workspaceId,
     sectionId: body.sectionId,
@@ -42,7 +42,7 @@ export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
     settingsHash: body.settingsHash,
     result: body.result ?? null,
     status: body.status,
-  });
+  }, { checkLimit: assertSolveLimit }); // issue 7: 402 when the plan is full, checked inside the solve's transaction
   if (out.ok) return json({ solve: out.solve, created: out.created }, out.created ? 201 : 200);
   if (out.reason === 'section_not_found') throw new ApiError(404, 'not_found', 'The section was not found.', 'sectionId');
   if (out.reason === 'revision_not_found')

@@ -28,7 +28,11 @@ export const POST = apiHandler(async (req: Request, ctx: Ctx) => {
   const body = await parseJsonBody(req, createCommentSchema, { maxBytes: MAX_COMMENT_BODY_BYTES });
   const comment = await insertComment({ workspaceId, solveId, authorId: user.id, body: body.body });
   if (!comment) throw notFound('The solve');
-  // Issue 7: tell the solve's author and anyone @mentioned (never fails the comment).
+  // Issue 7: tell the solve's author and anyone @mentioned. Deliberately AFTER the comment's
+  // transaction (which holds the comment and its audit event) and outside it: a failed
+  // notification or mail is logged and never fails or undoes the comment, and the e-mails
+  // cannot be rolled back anyway. The cost, accepted: a crash between the two statements
+  // keeps the comment and loses its notifications.
   await notifyComment({ workspaceId, solveId, commentId: comment.id, authorId: user.id, body: body.body }).catch((e) =>
     console.error('Edgefield: comment notifications failed', e),
   );

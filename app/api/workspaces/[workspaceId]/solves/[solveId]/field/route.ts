@@ -3,9 +3,11 @@
  * GET (viewer and up): the stored bytes. PUT (editor and up): store them once; the header,
  * the sizes against the stored result's mesh and signal nets, the compressed stream, the
  * checksum and the values are all checked first, so a corrupted, oversized or mismatched
- * upload is refused with a clear 4xx and nothing stored changes.
+ * upload is refused with a clear 4xx and nothing stored changes. The store itself is a
+ * conditional update (`field is null`): of two concurrent uploads one gets 201 and the other
+ * 409 field_exists, and the stored field never changes afterwards.
  */
-import { getSolve, getSolveField, setSolveField } from '@/db/queries/solves';
+import { getSolve, getSolveField, storeSolveField } from '@/db/queries/solves';
 import { requireWorkspaceRole } from '@/lib/server/access';
 import { ApiError, apiHandler, json, notFound, readBodyBytes, type RouteCtx, readParams } from '@/lib/server/http';
 import { decodeFieldBlob, FieldBlobError } from '@/lib/field/codec';
@@ -15,6 +17,7 @@ type Ctx = RouteCtx<{ workspaceId: string; solveId: string }>;
 
 /** Largest accepted upload (compressed), bytes. */
 const MAX_FIELD_UPLOAD_BYTES = 32 * 1024 * 1024;
+const FIELD_EXISTS_MESSAGE = 'This solve already holds its field; a stored solve does not change.';
 
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
   const { workspaceId, solveId } = await readParams(ctx);
@@ -47,7 +50,7 @@ export const PUT = apiHandler(async (req: Request, ctx: Ctx) => {
     throw new ApiError(409, 'no_result', 'Only a finished solve with a result can hold a field.');
   }
   if (solve.hasField) {
-    throw new ApiError(409, 'field_exists', 'This solve already holds its field; a stored solve does not change.');
+    throw new ApiError(409, 'field_exists', FIELD_EXISTS_MESSAGE);
   }
   const result = solve.result as { mesh?: { nx?: unknown; ny?: unknown; nodes?: unknown }; nets?: unknown };
   const nx = Number(result.mesh?.nx);
@@ -64,7 +67,8 @@ export const PUT = apiHandler(async (req: Request, ctx: Ctx) => {
     }
     throw e;
   }
-  const stored = await setSolveField(workspaceId, solveId, user.id, bytes);
-  if (!stored) throw notFound('The solve');
+  const stored = await storeSolveField(workspaceId, solveId, user.id, bytes);
+  if (stored === 'not_found') throw notFound('The solve');
+  if (stored === 'exists') throw new ApiError(409, 'field_exists', FIELD_EXISTS_MESSAGE);
   return json({ stored: true, bytes: bytes.byteLength }, 201);
 });
