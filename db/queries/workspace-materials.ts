@@ -3,6 +3,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import { getDb } from '../client';
 import { workspaceMaterials } from '../schema';
 import type { WorkspaceMaterialInput } from '@/lib/validations/material';
+import { lockWorkspaceForLimits } from './workspaces';
 
 /** Custom materials kept for a workspace, oldest first. */
 export async function listWorkspaceMaterials(workspaceId: string): Promise<(WorkspaceMaterialInput & { key: string })[]> {
@@ -15,10 +16,15 @@ export async function listWorkspaceMaterials(workspaceId: string): Promise<(Work
   return rows.map((r) => ({ ...(r.content as WorkspaceMaterialInput), key: r.id }));
 }
 
-/** Keep a material for the workspace; one with the same material id is replaced. */
+/**
+ * Keep a material for the workspace; one with the same material id is replaced. The read and
+ * the write are serialised per workspace (workspace row lock), so two concurrent saves of one
+ * material id leave one row, not two.
+ */
 export async function upsertWorkspaceMaterial(workspaceId: string, userId: string, m: WorkspaceMaterialInput): Promise<void> {
   const db = await getDb();
   await db.transaction(async (tx) => {
+    await lockWorkspaceForLimits(tx, workspaceId);
     const existing = await tx
       .select({ id: workspaceMaterials.id, content: workspaceMaterials.content })
       .from(workspaceMaterials)

@@ -7,6 +7,11 @@
  * Failures are injected with vi.spyOn on insertAuditEvent (db/queries/audit.ts), the last
  * statement of each save: when it throws, the rows written before it in the same request
  * must be gone too.
+ *
+ * On PGlite (one connection) a transaction never interleaves with another, so the cases whose
+ * check was already inside a transaction (member limit, materials) can only fail without the
+ * workspace row lock on PostgreSQL (`npm run test:pg`); the import, measured-data, field and
+ * solve-limit cases failed on PGlite before their fixes.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -32,6 +37,7 @@ vi.mock('@/lib/server/mail', async (importOriginal) => ({
 import { and, eq, sql } from 'drizzle-orm';
 import { setDbForTesting, type DbHandle } from '@/db/client';
 import * as audit from '@/db/queries/audit';
+import { listWorkspaceMaterials, upsertWorkspaceMaterial } from '@/db/queries/workspace-materials';
 import { auditEvents, invitations, memberships, solves, workspaces } from '@/db/schema';
 import { encodeFieldBlob, type FieldData } from '@/lib/field/codec';
 import { PLANS } from '@/lib/server/plans';
@@ -271,5 +277,15 @@ describe('plan limits hold under concurrent requests (checked in the write’s t
     expect(rs.map((r) => r.status).sort(), JSON.stringify(rs.map((r) => r.json))).toEqual([201, 402, 402]);
     for (const r of rs.filter((x) => x.status === 402)) expect(r.json.error.code).toBe('plan_limit');
     expect(members + (await pendingNow())).toBe(PLANS.free.maxMembers);
+  });
+});
+
+describe('workspace materials: read-then-write serialised per workspace', () => {
+  it('concurrent saves of one material id leave one row holding one of the saved versions', async () => {
+    const versions = [2.2, 3.3, 4.4].map((epsR) => ({ id: 'race-laminate', name: `Race laminate ${epsR}`, epsR }));
+    await Promise.all(versions.map((m) => upsertWorkspaceMaterial(w.wsA, w.users.editor.id, m)));
+    const kept = (await listWorkspaceMaterials(w.wsA)).filter((m) => m.id === 'race-laminate');
+    expect(kept).toHaveLength(1);
+    expect(versions.map((v) => v.epsR)).toContain(kept[0]!.epsR);
   });
 });
