@@ -64,6 +64,11 @@ for (const width of [1440, 1024]) {
     expect(dbPerM(await summary.getByTestId('summary-alpha').innerText())).toBeGreaterThan(dbPerM(alpha));
     await noHorizontalOverflow(page);
     await summary.screenshot({ path: `${OUT}/${width}-results-summary.png` });
+    // the |E| picture over the drawing
+    await page.getByTestId('overlay-kind').selectOption('field');
+    await expect(page.getByTestId('overlay-kind')).toHaveValue('field');
+    await noHorizontalOverflow(page);
+    await page.screenshot({ path: `${OUT}/${width}-section-overlay-field.png` });
     // the link to the detailed card
     await summary.getByTestId('results-summary-details').click();
     await expect(page.getByTestId('analysis-card')).toBeInViewport();
