@@ -100,6 +100,7 @@ function printLoadTable(rows: CaseResult[], out: (s?: string) => void): void {
     const other = r.statusOther as Record<string, number> | undefined;
     if (other && Object.keys(other).length) out(`  ${r.name}: answers other than 2xx: ${Object.entries(other).map(([k, v]) => `${k} ×${v}`).join(', ')}`);
     if (typeof r.lostWrites === 'number') out(`  ${r.name}: ${fmt(r.savedRevisions)} revisions saved, ${fmt(r.lostWrites)} acknowledged saves missing afterwards`);
+    if (typeof r.conflictsAfterTimeout === 'number' && r.conflictsAfterTimeout > 0) out(`  ${r.name}: ${fmt(r.conflictsAfterTimeout)} of the 409s came after a timed-out save on the same connection (stored after all; the next save built on a stale revision)`);
   }
   const read = rows.find((r) => r.name === 'load-read-solves');
   if (read) out(`${(read.p99Ms as number) < 200 && read.errors === 0 ? 'ok  ' : 'MISS'} reads: p99 ${fmt(read.p99Ms)} ms with ${fmt(read.errors)} errors (target: p99 under 200 ms, zero errors; reported, not asserted)`);

@@ -10,7 +10,7 @@
  * answers (autocannon's default), in ms.
  */
 import type { EventEmitter } from 'node:events';
-import { writeFileSync } from 'node:fs';
+import { appendFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import autocannon from 'autocannon';
 
@@ -23,8 +23,11 @@ export interface LoadOptions {
   connections?: number;
   /** Seconds. @default BENCH_LOAD_SECONDS or 30 */
   durationS?: number;
-  /** Request list of connection i (called once per connection, in order 0, 1, …). */
-  requestsFor(i: number): LoadRequest[];
+  /**
+   * Request list of connection i (called once per connection, in order 0, 1, …); `client`
+   * emits autocannon's per-connection events ('timeout', 'response', …).
+   */
+  requestsFor(i: number, client: autocannon.Client): LoadRequest[];
   /** Seconds after which a request counts as timed out. @default 10 */
   timeoutS?: number;
   /** The server process's CPU time so far, ms (for serverCpuMsPerRequest). */
@@ -81,10 +84,10 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
     // Each connection replaces the default request with its own list (autocannon deep-copies
     // its options per connection; the functions in the list close over that connection's state).
     setupClient: (client) => {
-      client.setRequests(opts.requestsFor(nextClient++));
+      client.setRequests(opts.requestsFor(nextClient++, client));
     },
   });
-  // BENCH_LOAD_TRACE=<file>: one line per answer, "ms-since-start status latency-ms", to see
+  // BENCH_LOAD_TRACE=<file>: appends one line per answer, "ms-since-start status latency-ms", to see
   // whether slow answers come in bursts (a stall of the server) or spread out (queueing).
   const trace = process.env.BENCH_LOAD_TRACE;
   const lines: string[] = [];
@@ -97,7 +100,7 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
   }
   const result = await instance;
   const serverCpu = (opts.serverCpuMs?.() ?? NaN) - cpu0;
-  if (trace) writeFileSync(trace, lines.join('\n') + '\n');
+  if (trace) appendFileSync(trace, `# run of ${connections} connections, ${durationS} s, started ${new Date(Date.now() - (performance.now() - t0)).toISOString()}\n${lines.join('\n')}\n`);
   const statusOther: Record<string, number> = {};
   for (const [code, v] of Object.entries(result.statusCodeStats ?? {})) {
     if (!/^2\d\d$/.test(code)) statusOther[code] = v?.count ?? 0;

@@ -15,6 +15,7 @@
  * Reported, never asserted: rps, p50Ms, p99Ms (2xx answers), errors (non-2xx + connection
  * errors + timeouts). BENCH_LOAD_SECONDS shortens the run for quick checks.
  */
+import type { EventEmitter } from 'node:events';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { templateSection } from '@/lib/section/templates';
@@ -32,6 +33,11 @@ export interface LoadSaveResult extends LoadFigures {
   lostWrites: number;
   /** Bytes of one save request body (JSON). */
   bodyBytes: number;
+  /**
+   * 409 answers on connections that had a timeout before: the timed-out save was stored after
+   * all, so the next one builds on a stale revision and is refused, as an editor's would be.
+   */
+  conflictsAfterTimeout: number;
 }
 
 interface Slot {
@@ -40,6 +46,8 @@ interface Slot {
   base: string;
   n: number;
   saved: number;
+  timeouts: number;
+  conflictsAfterTimeout: number;
 }
 
 function content(slot: number, n: number) {
@@ -70,7 +78,7 @@ export async function run(): Promise<LoadSaveResult> {
       });
       if (r.status !== 201) throw new Error(`creating section ${i + 1} answered HTTP ${r.status}: ${await r.text()}`);
       const b = (await r.json()) as { section: { id: string }; revision: { id: string } };
-      slots.push({ cookie, sectionId: b.section.id, base: b.revision.id, n: 0, saved: 0 });
+      slots.push({ cookie, sectionId: b.section.id, base: b.revision.id, n: 0, saved: 0, timeouts: 0, conflictsAfterTimeout: 0 });
     }
     const bodyBytes = Buffer.byteLength(JSON.stringify({ content: content(0, 1), baseRevisionId: slots[0]!.base, message: 'Load bench save 1' }));
 
@@ -78,8 +86,10 @@ export async function run(): Promise<LoadSaveResult> {
       origin,
       serverCpuMs: server.cpuMs,
       connections,
-      requestsFor: (i): LoadRequest[] => {
+      requestsFor: (i, client): LoadRequest[] => {
         const slot = slots[i]!;
+        // autocannon emits 'timeout' on the connection (its typings leave the event out)
+        (client as EventEmitter).on('timeout', () => slot.timeouts++);
         return [
           {
             method: 'POST',
@@ -90,6 +100,7 @@ export async function run(): Promise<LoadSaveResult> {
               return { ...req, body: JSON.stringify({ content: content(i, slot.n), baseRevisionId: slot.base, message: `Load bench save ${slot.n}` }) };
             },
             onResponse: (status, body) => {
+              if (status === 409 && slot.timeouts > 0) slot.conflictsAfterTimeout++;
               if (status !== 201) return;
               slot.base = (JSON.parse(body) as { revision: { id: string } }).revision.id;
               slot.saved++;
@@ -115,6 +126,7 @@ export async function run(): Promise<LoadSaveResult> {
       savedRevisions: slots.reduce((a, s) => a + s.saved, 0),
       lostWrites,
       bodyBytes,
+      conflictsAfterTimeout: slots.reduce((a, s) => a + s.conflictsAfterTimeout, 0),
     };
   } finally {
     await server.stop();
