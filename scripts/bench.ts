@@ -99,6 +99,7 @@ function printLoadTable(rows: CaseResult[], out: (s?: string) => void): void {
   for (const r of rows) {
     const other = r.statusOther as Record<string, number> | undefined;
     if (other && Object.keys(other).length) out(`  ${r.name}: answers other than 2xx: ${Object.entries(other).map(([k, v]) => `${k} ×${v}`).join(', ')}`);
+    if (typeof r.warmupS === 'number' && r.warmupS > 0) out(`  ${r.name}: after ${fmt(r.warmupS)} s of the same load, not counted (${fmt(r.warmupErrors)} errors in it)`);
     if (typeof r.lostWrites === 'number') out(`  ${r.name}: ${fmt(r.savedRevisions)} revisions saved, ${fmt(r.lostWrites)} acknowledged saves missing afterwards`);
     if (typeof r.conflictsAfterTimeout === 'number' && r.conflictsAfterTimeout > 0) out(`  ${r.name}: ${fmt(r.conflictsAfterTimeout)} of the 409s came after a timed-out save on the same connection (stored after all; the next save built on a stale revision)`);
   }

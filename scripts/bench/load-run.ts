@@ -32,6 +32,11 @@ export interface LoadOptions {
   timeoutS?: number;
   /** The server process's CPU time so far, ms (for serverCpuMsPerRequest). */
   serverCpuMs?: () => number;
+  /**
+   * Seconds of load at the same concurrency before the measured run, not counted (their
+   * non-2xx answers and errors are reported as warmupErrors). @default 0
+   */
+  warmupS?: number;
 }
 
 export interface LoadFigures {
@@ -49,6 +54,9 @@ export interface LoadFigures {
   p90Ms: number;
   maxMs: number;
   meanMs: number;
+  /** Seconds of uncounted load before the measured run, and its non-2xx answers + errors. */
+  warmupS: number;
+  warmupErrors: number;
   /** Load average (1 min) of the machine when the run started and ended. */
   loadAvgStart: number;
   loadAvgEnd: number;
@@ -72,6 +80,20 @@ export function loadDurationS(): number {
 export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
   const connections = opts.connections ?? 50;
   const durationS = opts.durationS ?? loadDurationS();
+  const warmupS = opts.warmupS ?? 0;
+  let warmupErrors = 0;
+  if (warmupS > 0) {
+    let c = 0;
+    const w = await autocannon({
+      url: opts.origin,
+      connections,
+      pipelining: 1,
+      duration: warmupS,
+      timeout: opts.timeoutS ?? 10,
+      setupClient: (client) => client.setRequests(opts.requestsFor(c++, client)),
+    });
+    warmupErrors = w.non2xx + w.errors;
+  }
   const loadAvgStart = loadavg()[0]!;
   const cpu0 = opts.serverCpuMs?.() ?? NaN;
   let nextClient = 0;
@@ -122,6 +144,8 @@ export async function runLoad(opts: LoadOptions): Promise<LoadFigures> {
     loadAvgStart: Math.round(loadAvgStart * 100) / 100,
     loadAvgEnd: Math.round(loadavg()[0]! * 100) / 100,
     statusOther,
+    warmupS,
+    warmupErrors,
     serverCpuMsPerRequest: Math.round((serverCpu / Math.max(1, result.requests.total)) * 100) / 100,
   };
 }
