@@ -85,46 +85,51 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
   }, [section]);
   const canCompute = !!(fields && resolved && result.nets.length > 0);
 
-  // Worked out from the fields after the picture is on screen; bad input keeps the last values.
-  const [extra, setExtra] = useState<Extra>({});
-  const [pending, setPending] = useState(false);
-  useEffect(() => setExtra({}), [result]);
+  // Worked out from the fields after the picture is on screen, each in a task of its own (a
+  // new voltage does not redo the losses); bad input keeps the last values.
+  const [peakOut, setPeakOut] = useState<{ entries: PeakFieldEntry[]; volts: number } | { error: string } | null>(null);
+  const [lossOut, setLossOut] = useState<LossValues | { error: string } | null>(null);
   useEffect(() => {
-    if (!canCompute || frequencyHz === null || volts === null) return;
-    let stop = false;
-    setPending(true);
-    let timer: ReturnType<typeof setTimeout> | undefined;
-    const frame = requestAnimationFrame(() => {
-      timer = setTimeout(() => {
-        if (stop) return;
-        const next: Extra = {};
-        try {
-          next.peak = computePeakField(resolved!, result, fields!, { volts }).entries;
-          next.volts = volts;
-        } catch (e) {
-          next.error = `Peak field: ${e instanceof Error ? e.message : String(e)}`;
+    setPeakOut(null);
+    setLossOut(null);
+  }, [result]);
+  const peakPending = useAfterPaint(
+    canCompute && volts !== null
+      ? () => {
+          try {
+            setPeakOut({ entries: computePeakField(resolved!, result, fields!, { volts }).entries, volts });
+          } catch (e) {
+            setPeakOut({ error: `Peak field: ${e instanceof Error ? e.message : String(e)}` });
+          }
         }
-        try {
-          next.losses = computeLosses(resolved!, result, fields!, { frequencyHz });
-        } catch (e) {
-          next.error = `${next.error ? `${next.error} ` : ''}Losses: ${e instanceof Error ? e.message : String(e)}`;
+      : null,
+    [canCompute, resolved, result, fields, volts],
+  );
+  const lossPending = useAfterPaint(
+    canCompute && frequencyHz !== null
+      ? () => {
+          try {
+            setLossOut(computeLosses(resolved!, result, fields!, { frequencyHz }));
+          } catch (e) {
+            setLossOut({ error: `Losses: ${e instanceof Error ? e.message : String(e)}` });
+          }
         }
-        if (!stop) {
-          setExtra(next);
-          setPending(false);
-        }
-      }, 120); // also lets typing settle before the work starts
-    });
-    return () => {
-      stop = true;
-      cancelAnimationFrame(frame);
-      if (timer) clearTimeout(timer);
-      setPending(false);
-    };
-  }, [canCompute, resolved, result, fields, frequencyHz, volts]);
+      : null,
+    [canCompute, resolved, result, fields, frequencyHz],
+    180,
+  );
+  const pending = peakPending || lossPending;
+  const extra: Extra = {
+    ...(peakOut && 'entries' in peakOut ? { peak: peakOut.entries, volts: peakOut.volts } : {}),
+    ...(lossOut && !('error' in lossOut) ? { losses: lossOut } : {}),
+  };
+  const errors = [peakOut && 'error' in peakOut ? peakOut.error : null, lossOut && 'error' in lossOut ? lossOut.error : null].filter(Boolean);
+  if (errors.length) extra.error = errors.join(' ');
 
   const losses = canCompute ? extra.losses : result.losses;
   const peakEntries = canCompute ? extra.peak : result.peakField;
+  const lossWait = canCompute && lossPending && !losses;
+  const peakWait = canCompute && peakPending && !peakEntries;
   const peakVolts = canCompute ? extra.volts : result.peakFieldInfo?.volts;
   const { peak, weakest } = peakEntries ? peakSummary(peakEntries) : { peak: null, weakest: null };
   const f = CAP_UNIT_FACTOR[unit];
@@ -222,7 +227,7 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
             ) : null}
           </>
         ) : (
-          <Row k="Loss" v={pending ? '…' : canCompute ? '—' : 'not part of this result'} />
+          <Row k="Loss" v={lossWait ? '…' : canCompute ? '—' : 'not part of this result'} />
         )}
       </dl>
 
@@ -242,7 +247,7 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
             </p>
           </>
         ) : (
-          <Row k="Peak |E|" v={pending ? '…' : canCompute ? '—' : 'not part of this result'} />
+          <Row k="Peak |E|" v={peakWait ? '…' : canCompute ? '—' : 'not part of this result'} />
         )}
       </dl>
       {peak || canCompute ? <FieldCaution compact className="mt-2" testId="summary-caution" /> : null}
@@ -253,6 +258,35 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
       ) : null}
     </Block>
   );
+}
+
+/**
+ * Runs `work` after the next frame has been painted (a timeout of `delayMs` after it, which
+ * also lets typing settle), again whenever `deps` change; true while it waits.
+ */
+function useAfterPaint(work: (() => void) | null, deps: unknown[], delayMs = 120): boolean {
+  const [waiting, setWaiting] = useState(false);
+  useEffect(() => {
+    if (!work) return;
+    let stop = false;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    setWaiting(true);
+    const frame = requestAnimationFrame(() => {
+      timer = setTimeout(() => {
+        if (stop) return;
+        work();
+        setWaiting(false);
+      }, delayMs);
+    });
+    return () => {
+      stop = true;
+      cancelAnimationFrame(frame);
+      if (timer) clearTimeout(timer);
+      setWaiting(false);
+    };
+    // `work` is rebuilt on every render: `deps` name what it reads
+  }, deps);
+  return waiting;
 }
 
 function Row({ k, v, testId, warn }: { k: string; v: string; testId?: string; warn?: boolean }) {
