@@ -31,12 +31,26 @@ function diamond(colour: string, testId: string | undefined) {
   return DiamondMarker;
 }
 
+/** 1-2-5 ticks of a logarithmic axis inside [lo, hi] (recharts' own log ticks overlapped here); undefined when fewer than two. */
+function logTicks(lo: number, hi: number): number[] | undefined {
+  if (!(lo > 0) || !(hi > lo)) return undefined;
+  const t: number[] = [];
+  for (let e = Math.floor(Math.log10(lo)); e <= Math.ceil(Math.log10(hi)); e++)
+    for (const m of [1, 2, 5]) {
+      const v = Number((m * 10 ** e).toPrecision(12));
+      if (v >= lo * (1 - 1e-12) && v <= hi * (1 + 1e-12)) t.push(v);
+    }
+  return t.length >= 2 ? t : undefined;
+}
+
 const fmt = (v: number) => (Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(3))));
 
 export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series: ChartSeries[]; logX?: boolean; xLabel: string; yLabel: string; testId?: string }) {
   const usable = series.map((s) => ({ ...s, points: s.points.filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y) && (!logX || x > 0)) }));
   const xs = usable.flatMap((s) => s.points.map((p) => p[0]));
   if (xs.length === 0) return null;
+  const hasMarkers = usable.some((s) => s.markersOnly && s.points.length > 0);
+  const ticks = logX ? logTicks(Math.min(...xs), Math.max(...xs)) : undefined;
   return (
     <figure className="w-full" data-testid={testId} aria-label={`${yLabel} against ${xLabel}`}>
       <div className="h-72 w-full">
@@ -48,7 +62,10 @@ export function AnalysisChart({ series, logX, xLabel, yLabel, testId }: { series
               dataKey="x"
               scale={logX ? 'log' : 'linear'}
               domain={[Math.min(...xs), Math.max(...xs)]}
-              padding={{ left: 8, right: 8 }}
+              // With measured markers: padded and unclipped so markers at the ends show whole.
+              allowDataOverflow={!hasMarkers}
+              {...(ticks ? { ticks } : {})}
+              {...(hasMarkers ? { padding: { left: 8, right: 8 } } : {})}
               tickFormatter={fmt}
               label={{ value: xLabel, position: 'insideBottom', offset: -12, fontSize: 12 }}
               fontSize={11}
