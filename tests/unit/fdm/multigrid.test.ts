@@ -128,6 +128,26 @@ describe('convergence on hard cases', () => {
     expect(Math.max(...ms)).toBeLessThanOrEqual(12); // our own bar for a textbook-efficient solver (common practice, no published source)
   });
 
+  it('on cells stretched to aspect 1000 the K-cycle keeps the iteration count flat as levels are added (129², 257², 513²)', () => {
+    // level-independent convergence of the K-cycle (Notay & Vassilevski 2008, Numer. Linear
+    // Algebra Appl. 15); the bounds are ours (common practice, no published source): the
+    // V-cycle needs 8, 8 and 11 iterations here, the K-cycle 9, 8, 9
+    const counts = [129, 257, 513].map((n) => {
+      const sys = hardSystem(n, n, { maxRatio: 1000 });
+      const h = setupHierarchy(sys.op);
+      expect(h.levels[1].k).not.toBeNull(); // 'auto' picks the K-cycle on stretched cells
+      const res = solve(h, sys.rhs, { tolerance: 1e-10 });
+      expect(res.converged).toBe(true);
+      expect(relResidual(sys.op, res.x, sys.rhs)).toBeLessThanOrEqual(1e-10);
+      return res.iterations;
+    });
+    expect(Math.max(...counts)).toBeLessThanOrEqual(10);
+    expect(Math.max(...counts) - Math.min(...counts)).toBeLessThanOrEqual(2);
+    // and the V-cycle stays the choice on a uniform grid
+    expect(setupHierarchy(uniformMicrostrip(129).op).levels[1].k).toBeNull();
+    expect(setupHierarchy(uniformMicrostrip(129).op, { cycle: 'K' }).levels[1].k).not.toBeNull();
+  });
+
   it('reports decreasing residuals through onIteration', () => {
     const sys = hardSystem(129, 97, { maxRatio: 100 });
     const seen: [number, number][] = [];
