@@ -2,7 +2,7 @@
 # The data-layer tests on a PostgreSQL server (the DATABASE_URL variant of Edgefield).
 # Installs Debian's postgresql when missing (root: apt-get), starts a throwaway cluster in a
 # temporary folder on a free loopback port, applies the migrations through `npm run
-# db:migrate`, runs the data-layer, route-role, auth and backup tests with DATABASE_URL (each
+# db:migrate`, runs the data-layer, route-role, auth, backup and atomic-write tests with DATABASE_URL (each
 # suite gets a fresh database on that server; the backup test restores a backup of the embedded
 # database into it, and `npm run restore` loads one made by `npm run backup`), then stops the
 # cluster and removes the folder.
@@ -46,4 +46,4 @@ echo "== migrations through npm run db:migrate"
 npm run --silent db:migrate
 echo "== data-layer tests on PostgreSQL"
 npx vitest run tests/integration/data-layer.test.ts tests/integration/route-roles.test.ts tests/integration/auth-and-seed.test.ts \
-  tests/integration/backup.test.ts tests/integration/backup-cli.test.ts
+  tests/integration/backup.test.ts tests/integration/backup-cli.test.ts tests/integration/atomic-writes.test.ts
