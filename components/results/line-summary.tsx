@@ -6,15 +6,16 @@
  *
  * Losses and peak field come from the result when it holds them, else they are worked out
  * from this solve's finest-mesh fields with the same functions the CLI and the Analysis card
- * use (lib/analysis/losses.ts, lib/analysis/peak-field.ts). That work runs after the field has
- * been drawn (a timeout after the next frame), so it never delays the first picture.
+ * use (lib/analysis/losses.ts, lib/analysis/peak-field.ts), in the summary worker
+ * (workers/summary.worker.ts through lib/client/summary-client.ts), so the page stays
+ * responsive. Requests go out after the field has been drawn (a timeout after the next frame,
+ * which also lets typing settle); the latest request of each kind wins.
  */
 import { useEffect, useMemo, useState } from 'react';
 import type { LossValues, PeakFieldEntry, SectionFields, SectionResult } from '@/lib/engine/types';
 import { METRES_PER_UNIT, type ResolvedSection, type Section, type Units } from '@/lib/section/schema';
 import { resolveSection } from '@/lib/section/resolve';
-import { computeLosses } from '@/lib/analysis/losses';
-import { computePeakField } from '@/lib/analysis/peak-field';
+import { SummaryClient } from '@/lib/client/summary-client';
 import { CAP_UNIT_FACTOR, type CapUnit, sig, withPrefix } from '@/lib/field/format';
 import { FieldCaution } from '@/components/field/caution';
 import { cn } from '@/components/ui/cn';
@@ -85,8 +86,10 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
   }, [section]);
   const canCompute = !!(fields && resolved && result.nets.length > 0);
 
-  // Worked out from the fields after the picture is on screen, each in a task of its own (a
+  // Worked out in the summary worker after the picture is on screen, each kind on its own (a
   // new voltage does not redo the losses); bad input keeps the last values.
+  const [client] = useState(() => new SummaryClient());
+  useEffect(() => () => client.dispose(), [client]);
   const [peakOut, setPeakOut] = useState<{ entries: PeakFieldEntry[]; volts: number } | { error: string } | null>(null);
   const [lossOut, setLossOut] = useState<LossValues | { error: string } | null>(null);
   useEffect(() => {
@@ -95,24 +98,20 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
   }, [result]);
   const peakPending = useAfterPaint(
     canCompute && volts !== null
-      ? () => {
-          try {
-            setPeakOut({ entries: computePeakField(resolved!, result, fields!, { volts }).entries, volts });
-          } catch (e) {
-            setPeakOut({ error: `Peak field: ${e instanceof Error ? e.message : String(e)}` });
-          }
+      ? async (live) => {
+          const a = await client.peakField({ section: resolved!, result, fields: fields! }, volts);
+          if (a.stale || !live()) return;
+          setPeakOut(a.ok ? { entries: a.value, volts } : { error: a.message });
         }
       : null,
     [canCompute, resolved, result, fields, volts],
   );
   const lossPending = useAfterPaint(
     canCompute && frequencyHz !== null
-      ? () => {
-          try {
-            setLossOut(computeLosses(resolved!, result, fields!, { frequencyHz }));
-          } catch (e) {
-            setLossOut({ error: `Losses: ${e instanceof Error ? e.message : String(e)}` });
-          }
+      ? async (live) => {
+          const a = await client.losses({ section: resolved!, result, fields: fields! }, frequencyHz);
+          if (a.stale || !live()) return;
+          setLossOut(a.ok ? a.value : { error: a.message });
         }
       : null,
     [canCompute, resolved, result, fields, frequencyHz],
@@ -261,10 +260,11 @@ export function LineSummary({ result, fields, section, unit, onShowDetails }: Li
 }
 
 /**
- * Runs `work` after the next frame has been painted (a timeout of `delayMs` after it, which
- * also lets typing settle), again whenever `deps` change; true while it waits.
+ * Starts `work` after the next frame has been painted (a timeout of `delayMs` after it, which
+ * also lets typing settle), again whenever `deps` change; true until its answer is in. `work`
+ * gets `live()`, false once `deps` changed or the component left (its answer is then dropped).
  */
-function useAfterPaint(work: (() => void) | null, deps: unknown[], delayMs = 120): boolean {
+function useAfterPaint(work: ((live: () => boolean) => Promise<void>) | null, deps: unknown[], delayMs = 120): boolean {
   const [waiting, setWaiting] = useState(false);
   useEffect(() => {
     if (!work) return;
@@ -274,8 +274,10 @@ function useAfterPaint(work: (() => void) | null, deps: unknown[], delayMs = 120
     const frame = requestAnimationFrame(() => {
       timer = setTimeout(() => {
         if (stop) return;
-        work();
-        setWaiting(false);
+        const live = () => !stop;
+        work(live).finally(() => {
+          if (!stop) setWaiting(false);
+        });
       }, delayMs);
     });
     return () => {
