@@ -4,6 +4,8 @@
  * (malformed JSON, wrong types, NaN/Infinity as strings, huge/tiny numbers, long strings,
  * NUL, unicode, SQL and script fragments, deep nesting, 10 MB) with a 4xx in the JSON error
  * shape — never a 500 — and nothing stored changes (every table's rows hashed before/after).
+ * Every route × method (params, query, bodies, uploads), generated from routes-table.ts:
+ * fuzz-routes.test.ts.
  * Expectations: common practice, no published source.
  */
 import path from 'node:path';
