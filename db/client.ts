@@ -13,7 +13,7 @@
  */
 import path from 'node:path';
 import type { PgDatabase, PgQueryResultHKT } from 'drizzle-orm/pg-core';
-import { byteaHexParser } from './pglite-parsers';
+import { byteaHexParser, setPassthroughParsers, withoutDrizzleParsers } from './pglite-parsers';
 import * as schema from './schema';
 import { acquireDataDirLock, getDataDir, type DataDirLock } from '@/lib/server/data-dir';
 
@@ -100,10 +100,15 @@ export async function openPglite(dataDir: string, opts: OpenPgliteOptions = {}):
     const { PGlite, types } = await import('@electric-sql/pglite');
     const { drizzle } = await import('drizzle-orm/pglite');
     // PGlite's own bytea parser costs ~1 µs per byte on the server's only thread (db/pglite-parsers.ts).
+    // Drizzle passes its own parsers (dates and intervals kept as text) with every query, and
+    // PGlite then copies its whole parser table (hundreds of array types) per query: ~6% of the
+    // server's CPU under the read load. The same parsers are set once here, and drizzle's
+    // per-query copies are dropped while the client's match (db/pglite-parsers.ts); results are the same.
     const parsers = { [types.BYTEA]: byteaHexParser(types.parsers[types.BYTEA]!) };
     const client = new PGlite(dataDir, { ...(opts.loadDataDir ? { loadDataDir: opts.loadDataDir } : {}), parsers });
     await client.waitReady;
-    const db = drizzle({ client, schema }) as unknown as Db;
+    setPassthroughParsers(client);
+    const db = drizzle({ client: withoutDrizzleParsers(client), schema }) as unknown as Db;
     if (opts.migrate !== false) {
       const { migrate } = await import('drizzle-orm/pglite/migrator');
       await migrate(db as never, { migrationsFolder: migrationsFolder() });

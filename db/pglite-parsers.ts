@@ -23,3 +23,76 @@ export function byteaHexParser(fallback: (value: string, typeId?: number) => unk
     return fallback(value, typeId) as Uint8Array;
   };
 }
+
+/**
+ * The types drizzle-orm's PGlite driver (0.45) reads as text through a parser override sent
+ * with every query: timestamp, timestamptz, interval, date and the arrays numeric[],
+ * timestamp[], timestamptz[], interval[], date[]. db/client.ts sets the same pass-through
+ * parser on the client once (setPassthroughParsers), so the per-query override can be dropped.
+ */
+export const DRIZZLE_PASSTHROUGH_TYPES: readonly number[] = [1114, 1184, 1186, 1082, 1231, 1115, 1185, 1187, 1182];
+const PASSTHROUGH_KEY = [...DRIZZLE_PASSTHROUGH_TYPES].sort((a, b) => a - b).join(',');
+
+/** The one pass-through parser set on the client (compared by identity before dropping drizzle's). */
+export const passthroughParser = (value: string): string => value;
+
+type Parsers = Record<number, unknown>;
+interface QueryOptions {
+  parsers?: Parsers;
+  [k: string]: unknown;
+}
+interface Queryable {
+  query(sql: string, params?: unknown[], options?: QueryOptions): Promise<unknown>;
+}
+interface TransactionCapable extends Queryable {
+  parsers: Parsers;
+  transaction<T>(fn: (tx: Queryable) => Promise<T>): Promise<T>;
+}
+
+/**
+ * Set the pass-through parser for drizzle's types on a ready PGlite client. After
+ * `waitReady`: PGlite sets its own parsers for every array type while it starts, over those
+ * given to its constructor.
+ */
+export function setPassthroughParsers(client: { parsers: Parsers }): void {
+  for (const t of DRIZZLE_PASSTHROUGH_TYPES) client.parsers[t] = passthroughParser;
+}
+
+/**
+ * Options without drizzle's pass-through parsers when that is all they override and the
+ * client applies the same pass-through for each of those types itself; else unchanged.
+ */
+export function dropPassthroughParsers<O extends QueryOptions | undefined>(options: O, clientParsers: Parsers): O {
+  if (!options || !options.parsers) return options;
+  const keys = Object.keys(options.parsers);
+  if (keys.length !== DRIZZLE_PASSTHROUGH_TYPES.length || keys.map(Number).sort((a, b) => a - b).join(',') !== PASSTHROUGH_KEY) return options;
+  for (const t of DRIZZLE_PASSTHROUGH_TYPES) if (clientParsers[t] !== passthroughParser) return options;
+  const { parsers: _dropped, ...rest } = options;
+  return rest as O;
+}
+
+function wrapQueryable<T extends Queryable>(target: T, clientParsers: () => Parsers, wrapTx: boolean): T {
+  return new Proxy(target, {
+    get(t, prop) {
+      if (prop === 'query') {
+        return (sql: string, params?: unknown[], options?: QueryOptions) => t.query(sql, params, dropPassthroughParsers(options, clientParsers()));
+      }
+      if (wrapTx && prop === 'transaction') {
+        return <R>(fn: (tx: Queryable) => Promise<R>) =>
+          (t as unknown as TransactionCapable).transaction((tx) => fn(wrapQueryable(tx, clientParsers, false)));
+      }
+      const v = Reflect.get(t, prop, t) as unknown;
+      return typeof v === 'function' ? (v as (...a: unknown[]) => unknown).bind(t) : v;
+    },
+  });
+}
+
+/**
+ * The PGlite client as drizzle sees it: `query` (also inside transactions) without drizzle's
+ * per-query pass-through parsers whenever the client already applies them (see
+ * setPassthroughParsers). Everything else goes to the client unchanged.
+ */
+export function withoutDrizzleParsers<T extends object>(client: T): T {
+  const c = client as unknown as TransactionCapable;
+  return wrapQueryable(c, () => c.parsers, true) as unknown as T;
+}

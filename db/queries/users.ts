@@ -19,6 +19,13 @@ export async function getUserById(id: string): Promise<User | null> {
   return row ?? null;
 }
 
+/** The columns a signed-in request needs (not the password hash), by id; null when the account is gone. */
+export async function getSessionUserRow(id: string): Promise<Pick<User, 'id' | 'email' | 'name'> | null> {
+  const db = await getDb();
+  const [row] = await db.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.id, id)).limit(1);
+  return row ?? null;
+}
+
 export async function getUserByEmail(email: string): Promise<User | null> {
   const db = await getDb();
   const [row] = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase())).limit(1);

@@ -1,9 +1,10 @@
 import 'server-only';
 import { cache } from 'react';
-import { getServerSession } from 'next-auth';
+import { cookies, headers } from 'next/headers';
 import { redirect } from 'next/navigation';
-import { getUserById } from '@/db/queries/users';
-import { getAuthOptions } from './auth-options';
+import { getSessionUserRow } from '@/db/queries/users';
+import { getAuthSecret } from './secret';
+import { readSessionToken, sessionCookieName, sessionUserId } from './session-token';
 
 export interface SessionUser {
   id: string;
@@ -16,10 +17,12 @@ export interface SessionUser {
  * once), or null. Memoised per request while rendering (layout and page share one lookup).
  */
 export const getSessionUser = cache(async function getSessionUser(): Promise<SessionUser | null> {
-  const session = await getServerSession(getAuthOptions());
-  const id = (session?.user as { id?: string } | undefined)?.id;
+  // The session cookie decrypted as next-auth does (lib/server/session-token.ts), without
+  // running next-auth's session endpoint per request.
+  const token = readSessionToken((await cookies()).getAll(), sessionCookieName(await headers()));
+  const id = await sessionUserId(token, getAuthSecret());
   if (!id) return null;
-  const user = await getUserById(id);
+  const user = await getSessionUserRow(id);
   if (!user) return null;
   return { id: user.id, email: user.email, name: user.name ?? user.email };
 });
