@@ -3,6 +3,8 @@ import { and, asc, eq, isNull } from 'drizzle-orm';
 import { getDb } from '../client';
 import { comments, solves, users } from '../schema';
 import { insertAuditEvent } from './audit';
+import type { WithRole } from './solves';
+import { memberRoleSql } from './workspaces';
 
 export interface CommentView {
   id: string;
@@ -37,6 +39,42 @@ export async function listComments(workspaceId: string, solveId: string): Promis
     createdAt: r.createdAt,
     author: r.authorId ? { id: r.authorId, name: r.authorName ?? r.authorEmail ?? '' } : null,
   }));
+}
+
+/**
+ * listComments, the solve's existence and the reader's role in one query: the comments of a
+ * solve of this workspace (oldest first), or undefined when the workspace has no such solve.
+ */
+export async function listCommentsWithRole(userId: string, workspaceId: string, solveId: string): Promise<WithRole<CommentView[]>> {
+  const db = await getDb();
+  const rows = await db
+    .select({
+      id: comments.id,
+      body: comments.body,
+      createdAt: comments.createdAt,
+      authorId: users.id,
+      authorName: users.name,
+      authorEmail: users.email,
+      memberRole: memberRoleSql(userId, workspaceId),
+    })
+    .from(solves)
+    .leftJoin(comments, and(eq(comments.solveId, solves.id), isNull(comments.deletedAt)))
+    .leftJoin(users, eq(users.id, comments.authorId))
+    .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+    .orderBy(asc(comments.createdAt), asc(comments.id));
+  if (!rows[0]) return undefined;
+  const out: CommentView[] = [];
+  for (const r of rows) {
+    if (r.id === null) continue; // the solve's own row when it has no comments
+    out.push({
+      id: r.id,
+      solveId,
+      body: r.body!,
+      createdAt: r.createdAt!,
+      author: r.authorId ? { id: r.authorId, name: r.authorName ?? r.authorEmail ?? '' } : null,
+    });
+  }
+  return { role: rows[0].memberRole, data: out };
 }
 
 /** Add a comment to a solve of this workspace; null when the solve is not there. */

@@ -1,9 +1,16 @@
 import 'server-only';
 import { and, asc, desc, eq, gte, isNull, lte, sql, type SQL } from 'drizzle-orm';
 import { getDb } from '../client';
-import { sectionRevisions, sections, solves, users, type SolveRow, type SolveStatus } from '../schema';
+import { sectionRevisions, sections, solves, users, type Role, type SolveRow, type SolveStatus } from '../schema';
 import { insertAuditEvent } from './audit';
-import { lockWorkspaceForLimits } from './workspaces';
+import { lockWorkspaceForLimits, memberRoleSql } from './workspaces';
+
+/**
+ * A read made together with the reader's role in the workspace (one query; see
+ * lib/server/access.ts readAsViewer): the role read with the rows (null: not a member) and
+ * the data, or undefined when the query found no row at all (then the role is unknown).
+ */
+export type WithRole<T> = { role: Role | null; data: T } | undefined;
 
 /** A solve without its field blob. */
 export interface SolveView {
@@ -70,9 +77,10 @@ function toView(r: ViewRow): SolveView {
   };
 }
 
-function baseQuery(db: Awaited<ReturnType<typeof getDb>>) {
+/** The solve view query; `role` adds the reader's role (memberRoleSql) as column memberRole. */
+function baseQuery(db: Awaited<ReturnType<typeof getDb>>, role?: SQL<Role | null>) {
   return db
-    .select(viewColumns)
+    .select({ ...viewColumns, memberRole: role ?? sql<Role | null>`null` })
     .from(solves)
     .innerJoin(sections, eq(sections.id, solves.sectionId))
     .innerJoin(sectionRevisions, eq(sectionRevisions.id, solves.revisionId))
@@ -89,8 +97,7 @@ export interface ListSolvesOptions {
   limit?: number;
 }
 
-export async function listSolves(workspaceId: string, opts: ListSolvesOptions = {}): Promise<SolveView[]> {
-  const db = await getDb();
+function listSolvesQuery(db: Awaited<ReturnType<typeof getDb>>, workspaceId: string, opts: ListSolvesOptions, role?: SQL<Role | null>) {
   const where: SQL[] = [eq(solves.workspaceId, workspaceId)];
   if (opts.sectionId) where.push(eq(solves.sectionId, opts.sectionId));
   if (opts.authorId) where.push(eq(solves.authorId, opts.authorId));
@@ -101,11 +108,22 @@ export async function listSolves(workspaceId: string, opts: ListSolvesOptions = 
   const col =
     sort === 'section' ? sql`lower(${sections.name})` : sort === 'author' ? sql`lower(coalesce(${users.name}, ${users.email}))` : solves.createdAt;
   const ord = dir === 'asc' ? asc(col) : desc(col);
-  const rows = await baseQuery(db)
+  return baseQuery(db, role)
     .where(and(...where))
     .orderBy(ord, desc(solves.createdAt), asc(solves.id))
     .limit(opts.limit ?? 100);
-  return rows.map(toView);
+}
+
+export async function listSolves(workspaceId: string, opts: ListSolvesOptions = {}): Promise<SolveView[]> {
+  const db = await getDb();
+  return (await listSolvesQuery(db, workspaceId, opts)).map(toView);
+}
+
+/** listSolves and the reader's role in one query (undefined when no solve matched). */
+export async function listSolvesWithRole(userId: string, workspaceId: string, opts: ListSolvesOptions = {}): Promise<WithRole<SolveView[]>> {
+  const db = await getDb();
+  const rows = await listSolvesQuery(db, workspaceId, opts, memberRoleSql(userId, workspaceId));
+  return rows[0] ? { role: rows[0].memberRole, data: rows.map(toView) } : undefined;
 }
 
 /** One solve of this workspace (without the field blob), or null. */
@@ -115,6 +133,15 @@ export async function getSolve(workspaceId: string, solveId: string): Promise<So
     .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
     .limit(1);
   return row ? toView(row) : null;
+}
+
+/** getSolve and the reader's role in one query (undefined when there is no such solve). */
+export async function getSolveWithRole(userId: string, workspaceId: string, solveId: string): Promise<WithRole<SolveView>> {
+  const db = await getDb();
+  const [row] = await baseQuery(db, memberRoleSql(userId, workspaceId))
+    .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+    .limit(1);
+  return row ? { role: row.memberRole, data: toView(row) } : undefined;
 }
 
 export type InsertSolveOutcome =
@@ -214,6 +241,39 @@ export async function getSolveField(workspaceId: string, solveId: string): Promi
     .limit(1);
   if (!row) return undefined;
   return row.field ?? null;
+}
+
+/** getSolveField and the reader's role in one query (undefined when there is no such solve). */
+export async function getSolveFieldWithRole(userId: string, workspaceId: string, solveId: string): Promise<WithRole<Uint8Array | null>> {
+  const db = await getDb();
+  const [row] = await db
+    .select({ field: solves.field, memberRole: memberRoleSql(userId, workspaceId) })
+    .from(solves)
+    .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+    .limit(1);
+  return row ? { role: row.memberRole, data: row.field ?? null } : undefined;
+}
+
+/**
+ * Whether a solve of this workspace holds a field and its size, without reading the blob
+ * (for answering If-None-Match): undefined when there is no such solve.
+ */
+export async function getSolveFieldInfoWithRole(
+  userId: string,
+  workspaceId: string,
+  solveId: string,
+): Promise<WithRole<{ hasField: boolean; fieldBytes: number | null }>> {
+  const db = await getDb();
+  const [row] = await db
+    .select({
+      hasField: sql<boolean>`(${solves.field} is not null)`,
+      fieldBytes: solves.fieldBytes,
+      memberRole: memberRoleSql(userId, workspaceId),
+    })
+    .from(solves)
+    .where(and(eq(solves.id, solveId), eq(solves.workspaceId, workspaceId)))
+    .limit(1);
+  return row ? { role: row.memberRole, data: { hasField: Boolean(row.hasField), fieldBytes: row.fieldBytes ?? null } } : undefined;
 }
 
 export type StoreFieldOutcome = 'stored' | 'exists' | 'not_found';

@@ -68,6 +68,14 @@ export async function lockWorkspaceForLimits(tx: DbOrTx, workspaceId: string): P
   return row ?? null;
 }
 
+/**
+ * The user's role in the workspace as a scalar subquery (null when not a member), to be read
+ * in the same query as a route's data (lib/server/access.ts readAsViewer).
+ */
+export function memberRoleSql(userId: string, workspaceId: string) {
+  return sql<Role | null>`(select ${memberships.role} from ${memberships} where ${memberships.userId} = ${userId} and ${memberships.workspaceId} = ${workspaceId} limit 1)`;
+}
+
 export async function getMembershipRow(userId: string, workspaceId: string): Promise<{ role: Role } | null> {
   const db = await getDb();
   const [row] = await db

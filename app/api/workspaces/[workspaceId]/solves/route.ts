@@ -1,5 +1,5 @@
-import { insertSolve, listSolves } from '@/db/queries/solves';
-import { requireWorkspaceRole } from '@/lib/server/access';
+import { insertSolve, listSolvesWithRole } from '@/db/queries/solves';
+import { readAsViewer, requireWorkspaceRole } from '@/lib/server/access';
 import { assertSolveLimit } from '@/lib/server/plans';
 import { ApiError, apiHandler, json, parseJsonBody, parseSearchParams, type RouteCtx, readParams } from '@/lib/server/http';
 import { createSolveSchema, listSolvesQuerySchema, MAX_SOLVE_BODY_BYTES } from '@/lib/validations/solve';
@@ -10,17 +10,28 @@ type Ctx = RouteCtx<{ workspaceId: string }>;
 /** List solves: ?sectionId=&authorId=&from=&to=&sort=created|section|author&dir=&limit= */
 export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
   const { workspaceId } = await readParams(ctx);
-  await requireWorkspaceRole(workspaceId, 'viewer');
-  const q = parseSearchParams(req, listSolvesQuerySchema);
-  const solves = await listSolves(workspaceId, {
-    sectionId: q.sectionId,
-    authorId: q.authorId,
-    from: q.from ? new Date(q.from) : undefined,
-    to: q.to ? new Date(q.to) : undefined,
-    sort: q.sort,
-    dir: q.dir,
-    limit: q.limit,
-  });
+  let q;
+  try {
+    q = parseSearchParams(req, listSolvesQuerySchema);
+  } catch (e) {
+    await requireWorkspaceRole(workspaceId, 'viewer'); // a bad query: 401/404 still come first
+    throw e;
+  }
+  // the role is read with the list (one query); same statuses as requireWorkspaceRole 'viewer' first
+  const { data: solves } = await readAsViewer(
+    workspaceId,
+    (userId) =>
+      listSolvesWithRole(userId, workspaceId, {
+        sectionId: q.sectionId,
+        authorId: q.authorId,
+        from: q.from ? new Date(q.from) : undefined,
+        to: q.to ? new Date(q.to) : undefined,
+        sort: q.sort,
+        dir: q.dir,
+        limit: q.limit,
+      }),
+    [],
+  );
   return json({ solves });
 });
 

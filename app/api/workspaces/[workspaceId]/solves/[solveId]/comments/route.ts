@@ -2,9 +2,8 @@
  * The comment thread of a solve. Every member may read and comment (viewers too: commenting
  * does not change the solve).
  */
-import { getSolve } from '@/db/queries/solves';
-import { insertComment, listComments } from '@/db/queries/comments';
-import { requireWorkspaceRole } from '@/lib/server/access';
+import { insertComment, listCommentsWithRole } from '@/db/queries/comments';
+import { readAsViewer, requireWorkspaceRole } from '@/lib/server/access';
 import { apiHandler, json, notFound, parseJsonBody, type RouteCtx, readParams } from '@/lib/server/http';
 import { createCommentSchema } from '@/lib/validations/comment';
 import { notifyComment } from '@/lib/server/notify';
@@ -16,10 +15,10 @@ const MAX_COMMENT_BODY_BYTES = 32 * 1024;
 
 export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
   const { workspaceId, solveId } = await readParams(ctx);
-  await requireWorkspaceRole(workspaceId, 'viewer');
-  const solve = await getSolve(workspaceId, solveId);
-  if (!solve) throw notFound('The solve');
-  return json({ comments: await listComments(workspaceId, solveId) });
+  // one query: the role, the solve's existence and its thread (statuses as requireWorkspaceRole 'viewer' first)
+  const { data: comments } = await readAsViewer(workspaceId, (userId) => listCommentsWithRole(userId, workspaceId, solveId), null);
+  if (!comments) throw notFound('The solve');
+  return json({ comments });
 });
 
 export const POST = apiHandler(async (req: Request, ctx: Ctx) => {

@@ -7,8 +7,8 @@
  * conditional update (`field is null`): of two concurrent uploads one gets 201 and the other
  * 409 field_exists, and the stored field never changes afterwards.
  */
-import { getSolve, getSolveField, storeSolveField } from '@/db/queries/solves';
-import { requireWorkspaceRole } from '@/lib/server/access';
+import { getSolve, getSolveFieldInfoWithRole, getSolveFieldWithRole, storeSolveField } from '@/db/queries/solves';
+import { readAsViewer, requireWorkspaceRole } from '@/lib/server/access';
 import { ApiError, apiHandler, json, notFound, readBodyBytes, type RouteCtx, readParams } from '@/lib/server/http';
 import { decodeFieldBlob, FieldBlobError } from '@/lib/field/codec';
 
@@ -19,19 +19,50 @@ type Ctx = RouteCtx<{ workspaceId: string; solveId: string }>;
 const MAX_FIELD_UPLOAD_BYTES = 32 * 1024 * 1024;
 const FIELD_EXISTS_MESSAGE = 'This solve already holds its field; a stored solve does not change.';
 
-export const GET = apiHandler(async (_req: Request, ctx: Ctx) => {
+/**
+ * A stored field never changes (solves are immutable and the field is stored once), so its
+ * ETag is the solve id and size, and a browser that has it asks with If-None-Match and gets a
+ * 304 without the blob being read. Access is checked first either way; the cache is private.
+ */
+const FIELD_CACHE_CONTROL = 'private, max-age=31536000, immutable';
+const fieldEtag = (solveId: string, bytes: number) => `"field-${solveId}-${bytes}"`;
+
+/** True when an If-None-Match header lists `etag` (or is "*"); weak forms compare equal. */
+function ifNoneMatchHits(header: string | null, etag: string): boolean {
+  if (!header) return false;
+  return header.split(',').some((t) => {
+    const v = t.trim();
+    return v === '*' || v === etag || v === `W/${etag}`;
+  });
+}
+
+export const GET = apiHandler(async (req: Request, ctx: Ctx) => {
   const { workspaceId, solveId } = await readParams(ctx);
-  await requireWorkspaceRole(workspaceId, 'viewer');
-  const field = await getSolveField(workspaceId, solveId);
+  // The role is read in the same query as the field (statuses as requireWorkspaceRole 'viewer' first).
+  const ifNoneMatch = req.headers.get('if-none-match');
+  if (ifNoneMatch) {
+    const { data: info } = await readAsViewer(workspaceId, (userId) => getSolveFieldInfoWithRole(userId, workspaceId, solveId), undefined);
+    if (info === undefined) throw notFound('The solve');
+    if (!info.hasField) throw new ApiError(404, 'no_field', 'This solve has no stored field.');
+    if (info.fieldBytes !== null) {
+      const etag = fieldEtag(solveId, info.fieldBytes);
+      if (ifNoneMatchHits(ifNoneMatch, etag)) {
+        return new Response(null, { status: 304, headers: { etag, 'cache-control': FIELD_CACHE_CONTROL } });
+      }
+    }
+  }
+  const { data: field } = await readAsViewer(workspaceId, (userId) => getSolveFieldWithRole(userId, workspaceId, solveId), undefined);
   if (field === undefined) throw notFound('The solve');
   if (field === null) throw new ApiError(404, 'no_field', 'This solve has no stored field.');
-  return new Response(new Uint8Array(field), {
+  // The bytes as parsed from the database, sent without another copy.
+  return new Response(field as Uint8Array<ArrayBuffer>, {
     status: 200,
     headers: {
       'content-type': 'application/octet-stream',
       'content-length': String(field.byteLength),
+      etag: fieldEtag(solveId, field.byteLength),
       // a stored field never changes (solves are immutable), but access is per user
-      'cache-control': 'private, max-age=31536000, immutable',
+      'cache-control': FIELD_CACHE_CONTROL,
     },
   });
 });
