@@ -158,29 +158,44 @@ export function galerkin(A: Stencil9, t: Transfer): Stencil9 {
     nw: new Float64Array(size), ne: new Float64Array(size),
   };
   const sw = A.sw, se = A.se, nw = A.nw, ne = A.ne;
-  // phi on a 7×7 local patch (5×5 window plus a zero border); local (li, lj) ∈ −1..5 ↦ (lj+1)*7 + li+1,
-  // window position (li, lj) ∈ 0..4 ↔ fine (2I−2+li, 2J−2+lj)
-  const phi = new Float64Array(49);
-  const aphi = new Float64Array(25);
-  const nbI = [0, 1, 0, 1, -1];
-  const nbJ = [0, 0, 1, 1, 1];
+  // the nine interpolation weights of every coarse node (I, J) at fine (2I+di, 2J+dj), row-major in
+  // (dj, di), 0 where that fine node is missing: one table read instead of a weightAt call
+  const wt = new Float64Array(9 * size);
   for (let J = 0; J < ncy; J++) {
     for (let I = 0; I < ncx; I++) {
-      const fi0 = 2 * I - 2, fj0 = 2 * J - 2;
-      phi.fill(0);
+      const o = 9 * (J * ncx + I);
       for (let dj = -1; dj <= 1; dj++) {
         const fj = 2 * J + dj;
         if (fj < 0 || fj >= ny) continue;
         for (let di = -1; di <= 1; di++) {
           const fi = 2 * I + di;
           if (fi < 0 || fi >= nx) continue;
-          phi[(dj + 3) * 7 + di + 3] = weightAt(t, I, J, di, dj);
+          wt[o + (dj + 1) * 3 + di + 1] = weightAt(t, I, J, di, dj);
         }
       }
-      // A phi on the 5×5 window
-      for (let lj = 0; lj < 5; lj++) {
+    }
+  }
+  // phi on a 7×7 local patch (5×5 window plus a zero border); local (li, lj) ∈ −1..5 ↦ (lj+1)*7 + li+1,
+  // window position (li, lj) ∈ 0..4 ↔ fine (2I−2+li, 2J−2+lj)
+  const phi = new Float64Array(49);
+  const aphi = new Float64Array(25);
+  const nbI = [0, 1, 0, 1, -1];
+  const nbJ = [0, 0, 1, 1, 1];
+  // window rows/columns that neighbour q's weights reach: di from diLo[q], dj from djLo[q] (to 1 or 0)
+  const diLo = [-1, -1, -1, -1, 0], diHi = [1, 0, 1, 0, 1];
+  const djLo = [-1, -1, -1, -1, -1], djHi = [1, 1, 0, 0, 0];
+  for (let J = 0; J < ncy; J++) {
+    for (let I = 0; I < ncx; I++) {
+      const fi0 = 2 * I - 2, fj0 = 2 * J - 2;
+      const o = 9 * (J * ncx + I);
+      phi[16] = wt[o]; phi[17] = wt[o + 1]; phi[18] = wt[o + 2];
+      phi[23] = wt[o + 3]; phi[24] = wt[o + 4]; phi[25] = wt[o + 5];
+      phi[30] = wt[o + 6]; phi[31] = wt[o + 7]; phi[32] = wt[o + 8];
+      // A phi on the part of the 5×5 window that the products below read (row lj = 0 and
+      // (li = 0, lj < 3) lie outside the supports of the east/north/north-east/north-west neighbours)
+      for (let lj = 1; lj < 5; lj++) {
         const fj = fj0 + lj;
-        for (let li = 0; li < 5; li++) {
+        for (let li = lj < 3 ? 1 : 0; li < 5; li++) {
           const fi = fi0 + li;
           const a = lj * 5 + li;
           if (fi < 0 || fi >= nx || fj < 0 || fj >= ny) {
@@ -200,17 +215,18 @@ export function galerkin(A: Stencil9, t: Transfer): Stencil9 {
       for (let q = 0; q < 5; q++) {
         const I2 = I + nbI[q], J2 = J + nbJ[q];
         if (I2 < 0 || I2 >= ncx || J2 >= ncy) continue;
+        // aphi is 0 at fine nodes outside the grid and the table 0 at missing fine nodes, so only
+        // the window bounds need checking (they depend on q alone)
+        const o2 = 9 * (J2 * ncx + I2);
+        const li0 = 2 * nbI[q] + 2, lj0 = 2 * nbJ[q] + 2;
+        const d0 = diLo[q], d1 = diHi[q];
         let val = 0;
-        for (let dj = -1; dj <= 1; dj++) {
-          const fj = 2 * J2 + dj;
-          const lj = fj - fj0;
-          if (fj < 0 || fj >= ny || lj < 0 || lj > 4) continue;
-          for (let di = -1; di <= 1; di++) {
-            const fi = 2 * I2 + di;
-            const li = fi - fi0;
-            if (fi < 0 || fi >= nx || li < 0 || li > 4) continue;
-            const a = aphi[lj * 5 + li];
-            if (a !== 0) val += weightAt(t, I2, J2, di, dj) * a;
+        for (let dj = djLo[q]; dj <= djHi[q]; dj++) {
+          const row = (lj0 + dj) * 5 + li0;
+          const wrow = o2 + (dj + 1) * 3 + 1;
+          for (let di = d0; di <= d1; di++) {
+            const a = aphi[row + di];
+            if (a !== 0) val += wt[wrow + di] * a;
           }
         }
         switch (q) {
