@@ -259,50 +259,12 @@ export function galerkin(A: Stencil9, t: Transfer): Stencil9 {
  * Restriction bc = Pᵀ rf (padded vectors; rf's margins are zero). Writes bc inside the coarse grid.
  */
 export function restrict(t: Transfer, rf: Real, bc: Real): void {
-  const { nx, ncx, ncy, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
-  for (let J = 0; J < ncy; J++) {
-    let K = J * ncx + off;
-    let f = 2 * J * nx + fineOff;
-    for (let I = 0; I < ncx; I++, K++, f += 2) {
-      bc[K] =
-        rf[f] +
-        pxW[K] * rf[f + 1] +
-        pxE[K - 1] * rf[f - 1] +
-        pyS[K] * rf[f + nx] +
-        pyN[K - ncx] * rf[f - nx] +
-        pcSW[K] * rf[f + nx + 1] +
-        pcSE[K - 1] * rf[f + nx - 1] +
-        pcNW[K - ncx] * rf[f - nx + 1] +
-        pcNE[K - ncx - 1] * rf[f - nx - 1];
-    }
-  }
+  for (let J = 0; J < t.ncy; J++) restrictRow(t, rf, bc, J);
 }
 
 /** Interpolation xf += P xc (padded vectors; xc's margins are zero). Writes xf inside the fine grid. */
 export function interpolateAdd(t: Transfer, xc: Real, xf: Real): void {
-  const { nx, ny, ncx, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
-  const nxEven = nx & ~1; // fine columns 0..nxEven-1 come in (even, odd) pairs
-  for (let j = 0; j < ny; j++) {
-    const J = j >> 1;
-    const Kr = J * ncx + off;
-    const fr = j * nx + fineOff;
-    if ((j & 1) === 0) {
-      let K = Kr;
-      for (let i = 0; i < nxEven; i += 2, K++) {
-        const v = xc[K];
-        xf[fr + i] += v;
-        xf[fr + i + 1] += pxW[K] * v + pxE[K] * xc[K + 1];
-      }
-      if (nx & 1) xf[fr + nx - 1] += xc[K];
-    } else {
-      let K = Kr;
-      for (let i = 0; i < nxEven; i += 2, K++) {
-        xf[fr + i] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
-        xf[fr + i + 1] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
-      }
-      if (nx & 1) xf[fr + nx - 1] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
-    }
-  }
+  for (let j = 0; j < t.ny; j++) interpolateRow(t, xc, xf, j);
 }
 
 /**
