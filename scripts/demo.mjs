@@ -13,6 +13,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { APP_SOURCES, newestSourceMtime } from './app-sources.mjs';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
@@ -31,27 +32,6 @@ const nextBin = path.join(root, 'node_modules', 'next', 'dist', 'bin', 'next');
 if (!fs.existsSync(nextBin)) {
   console.log('demo: installing packages (npm ci)');
   run('npm', ['ci']);
-}
-
-const SOURCES = [
-  'app', 'components', 'lib', 'db', 'workers', 'public', 'instrumentation.ts', 'proxy.ts', 'middleware.ts',
-  'next.config.mjs', 'package.json', 'package-lock.json', 'postcss.config.mjs', 'tailwind.config.ts', 'tsconfig.json',
-];
-
-function newestMtime(p) {
-  let st;
-  try {
-    st = fs.statSync(p);
-  } catch {
-    return 0;
-  }
-  if (!st.isDirectory()) return st.mtimeMs;
-  let m = 0;
-  for (const e of fs.readdirSync(p)) {
-    if (e === 'node_modules' || e.startsWith('.')) continue;
-    m = Math.max(m, newestMtime(path.join(p, e)));
-  }
-  return m;
 }
 
 function run(cmd, args) {
@@ -85,7 +65,8 @@ try {
 } catch {
   /* no build yet */
 }
-const sourcesAt = Math.max(...SOURCES.map(newestMtime));
+// tsconfig.json too: the demo's build folder is the default one, whose types Next adds to it.
+const sourcesAt = newestSourceMtime(root, [...APP_SOURCES, 'tsconfig.json']);
 if (!builtAt || sourcesAt > builtAt) {
   console.log(builtAt ? 'demo: sources changed since the last build; building' : 'demo: building the app (first run, about a minute)');
   run(process.execPath, [nextBin, 'build']);

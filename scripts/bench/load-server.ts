@@ -20,33 +20,12 @@ import fs from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
+import { newestSourceMtime } from '../app-sources.mjs';
 import { repoRoot } from './browser-harness';
 
 const NEXT_BIN = path.join(repoRoot, 'node_modules', 'next', 'dist', 'bin', 'next');
 
-/** What `npm run demo` treats as the app's sources (a change there makes the build stale). */
-const SOURCES = [
-  'app', 'components', 'lib', 'db', 'workers', 'public', 'instrumentation.ts', 'proxy.ts', 'middleware.ts',
-  'next.config.mjs', 'package.json', 'package-lock.json', 'postcss.config.mjs', 'tailwind.config.ts',
-];
-
 const log = (s: string) => process.stderr.write(`load: ${s}\n`);
-
-function newestMtime(p: string): number {
-  let st: fs.Stats;
-  try {
-    st = fs.statSync(p);
-  } catch {
-    return 0;
-  }
-  if (!st.isDirectory()) return st.mtimeMs;
-  let m = 0;
-  for (const e of fs.readdirSync(p)) {
-    if (e === 'node_modules' || e.startsWith('.')) continue;
-    m = Math.max(m, newestMtime(path.join(p, e)));
-  }
-  return m;
-}
 
 export function distDir(): string {
   return process.env.BENCH_LOAD_DIST_DIR || '.next-bench';
@@ -71,7 +50,7 @@ export function ensureBuild(): void {
   } catch {
     /* no build yet */
   }
-  const sourcesAt = Math.max(...SOURCES.map((s) => newestMtime(path.join(repoRoot, s))));
+  const sourcesAt = newestSourceMtime(repoRoot);
   if (builtAt && sourcesAt <= builtAt) {
     log(`using the production build in ${dir}`);
     return;

@@ -1,0 +1,3 @@
+export declare const APP_SOURCES: readonly string[];
+export declare function newestMtime(p: string): number;
+export declare function newestSourceMtime(root: string, sources?: readonly string[]): number;
