@@ -140,6 +140,10 @@ export async function openPostgres(url: string, opts: { migrate?: boolean } = {}
   const pg = await import('pg');
   const { drizzle } = await import('drizzle-orm/node-postgres');
   const pool = new pg.default.Pool({ connectionString: url, max: Number(process.env.DATABASE_POOL_MAX || 10) });
+  // An idle pooled connection that the server ends (a restart, an administrator's terminate, a
+  // dropped database) is emitted here; without a listener node-postgres would crash the process.
+  // The pool discards that connection and opens a new one on the next query.
+  pool.on('error', (err) => console.error(`Edgefield: an idle PostgreSQL connection was closed by the server (${err.message}); it will be replaced`));
   const db = drizzle({ client: pool, schema }) as unknown as Db;
   if (opts.migrate !== false) {
     const { migrate } = await import('drizzle-orm/node-postgres/migrator');
