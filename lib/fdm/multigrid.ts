@@ -100,7 +100,15 @@ export interface HierarchyOptions {
    * stretched meshes single storage costs accuracy where weak couplings are 10⁴–10⁶ times
    * smaller than strong ones next to them (the standard-preset microstrip needed 42 instead
    * of 30 iterations), so 'auto' stores in single precision only where the mesh is not
-   * stretched (see anisotropyThreshold). @default 'auto'
+   * stretched (see anisotropyThreshold).
+   *
+   * The default is 'double': V8 compiles each kernel for the array types it has seen, and a
+   * process that runs both kinds of hierarchy (a stretched graded mesh and a uniform grid, as
+   * the solver worker and the benchmark do) gets kernels specialised for neither. Measured on
+   * the uniform 1M bench system, 2026-12-02, idle machine, medians of 7: single alone 51.4–51.7
+   * work units, double alone 51.9–53.8, single after a double solve in the same process
+   * 59.8–61.1. So one precision for everything; 'single' stays available for a process that
+   * uses nothing else. @default 'double'
    */
   precision?: 'single' | 'double' | 'auto';
 }
@@ -378,7 +386,7 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     coarseSmoother = 'auto',
     pointRatio = 2,
     pointFraction = 0.01,
-    precision = 'auto',
+    precision = 'double',
   } = opts;
   if (precision !== 'single' && precision !== 'double' && precision !== 'auto') throw new RangeError("precision must be 'single', 'double' or 'auto'");
   if (fineSmoother !== 'line' && fineSmoother !== 'point' && fineSmoother !== 'auto') throw new RangeError("fineSmoother must be 'line', 'point' or 'auto'");

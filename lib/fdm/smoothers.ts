@@ -15,11 +15,10 @@
  * Sign convention (as Operator5): (A x)_k = c_k x_k − Σ coupling · x_neighbour, couplings ≥ 0.
  */
 
-/** The arrays of one grid level (all padded, see above). */
 /**
- * Storage of a level: Float32Array in the default single-precision hierarchy (half the memory
- * traffic per sweep), Float64Array when `precision: 'double'` is asked for. Arithmetic is
- * always in double precision; only stored values are rounded.
+ * Storage of a level: Float64Array by default, Float32Array when `precision: 'single'` (or
+ * 'auto' on an unstretched mesh) is asked for (see HierarchyOptions.precision in
+ * ./multigrid). Arithmetic is always in double precision; only stored values are rounded.
  */
 export type Real = Float32Array | Float64Array;
 

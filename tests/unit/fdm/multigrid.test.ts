@@ -243,11 +243,14 @@ describe('the preconditioner', () => {
     });
   }
 
-  it("'auto' precision: single storage on a uniform grid, double on stretched cells", () => {
-    const uni = setupHierarchy(uniformMicrostrip(129).op);
+  it("double storage by default; 'auto': single on a uniform grid, double on stretched cells", () => {
+    const def = setupHierarchy(uniformMicrostrip(129).op);
+    expect(def.precision).toBe('double');
+    expect(def.levels[1].c).toBeInstanceOf(Float64Array);
+    const uni = setupHierarchy(uniformMicrostrip(129).op, { precision: 'auto' });
     expect(uni.precision).toBe('single');
     expect(uni.levels[0].x).toBeInstanceOf(Float32Array);
-    const str = setupHierarchy(hardSystem(97, 81, { maxRatio: 100 }).op);
+    const str = setupHierarchy(hardSystem(97, 81, { maxRatio: 100 }).op, { precision: 'auto' });
     expect(str.precision).toBe('double');
     expect(str.levels[1].c).toBeInstanceOf(Float64Array);
     // a grid solved directly (no coarse levels) stays double whatever is asked
