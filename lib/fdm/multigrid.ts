@@ -152,8 +152,8 @@ export interface Hierarchy {
   fixed: Int32Array;
   /**
    * CG vectors (double precision), padded like level 0: iterate, residual, direction and A·direction.
-   * The preconditioner reads the residual from levels[0].b (a copy in the hierarchy's
-   * precision) and leaves z = M r in levels[0].x.
+   * The preconditioner reads the residual from levels[0].b (in double storage the same array
+   * as rp, in single storage a rounded copy) and leaves z = M r in levels[0].x.
    */
   xp: Float64Array;
   rp: Float64Array;
@@ -442,7 +442,8 @@ export function setupHierarchy(op: Operator5, opts: HierarchyOptions = {}): Hier
     pointInv: point ? inverseDiagonal(levels[0]) : null,
     fixed: Int32Array.from(fixedList),
     xp: new Float64Array(padLen),
-    rp: new Float64Array(padLen),
+    // in double storage the preconditioner reads CG's residual directly (no copy per iteration)
+    rp: single ? new Float64Array(padLen) : (levels[0].b as Float64Array),
     pp: new Float64Array(padLen),
     qp: new Float64Array(padLen),
     // in double storage level 0 already holds these arrays
@@ -647,15 +648,16 @@ export function fineProduct(h: Hierarchy, x: Float64Array, out: Float64Array): n
 }
 
 /**
- * p = z + beta·p, then out = A p with the double-precision fine operator; returns p·out. One
- * pass: row j+1 of p is updated just before row j of the product needs it. Writes p and out
- * inside the grid.
+ * x = x + alpha·p (the previous step, deferred to this pass), p = z + beta·p, then out = A p
+ * with the double-precision fine operator; returns p·out. One pass: row j+1 of x and p is
+ * updated just before row j of the product needs it. Writes x, p and out inside the grid.
  */
-function updateMatvecDot(h: Hierarchy, z: Real, beta: number, p: Float64Array, out: Float64Array): number {
+function updateMatvecDot(h: Hierarchy, z: Real, beta: number, p: Float64Array, out: Float64Array, x: Float64Array, alpha: number): number {
   const { fc: c, fw: w, fs: s } = h;
   const { nx, ny, off } = h.levels[0];
   const update = (j: number) => {
     const r = off + j * nx;
+    if (alpha !== 0) for (let kk = r; kk < r + nx; kk++) x[kk] += alpha * p[kk];
     if (beta === 0) for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk];
     else for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk] + beta * p[kk];
   };
@@ -684,6 +686,49 @@ function updateMatvecDot(h: Hierarchy, z: Real, beta: number, p: Float64Array, o
     }
   }
   return d0 + d1;
+}
+
+/** x += alpha·p over the grid part of padded vectors. */
+function axpyPadded(x: Float64Array, alpha: number, p: Float64Array, off: number, size: number): void {
+  for (let k = off; k < off + size; k++) x[k] += alpha * p[k];
+}
+
+/**
+ * r −= alpha·q over the grid part of padded vectors, copied to b when b is another array (single
+ * storage); returns ‖r‖².
+ */
+function updateResidual(r: Float64Array, alpha: number, q: Float64Array, b: Real, off: number, size: number): number {
+  let rr0 = 0, rr1 = 0;
+  const end = off + size;
+  let k = off;
+  if (b === r) {
+    for (; k + 1 < end; k += 2) {
+      const v0 = r[k] - alpha * q[k];
+      const v1 = r[k + 1] - alpha * q[k + 1];
+      r[k] = v0;
+      r[k + 1] = v1;
+      rr0 += v0 * v0;
+      rr1 += v1 * v1;
+    }
+  } else {
+    for (; k + 1 < end; k += 2) {
+      const v0 = r[k] - alpha * q[k];
+      const v1 = r[k + 1] - alpha * q[k + 1];
+      r[k] = v0;
+      r[k + 1] = v1;
+      b[k] = v0;
+      b[k + 1] = v1;
+      rr0 += v0 * v0;
+      rr1 += v1 * v1;
+    }
+  }
+  for (; k < end; k++) {
+    const v = r[k] - alpha * q[k];
+    r[k] = v;
+    b[k] = v;
+    rr0 += v * v;
+  }
+  return rr0 + rr1;
 }
 
 /** Σ z_k r_k over the grid part [off, off + size) of two padded vectors (four partial sums). */
@@ -807,6 +852,8 @@ export function solve(
   let converged = rel <= tolerance;
   let pAp = 0;
   let restart = true;
+  /** The step alpha of x += alpha p not yet applied to x. */
+  let pending = 0;
   while (!converged && it < maxIterations) {
     if (isCancelled !== undefined && isCancelled()) throw new SolveCancelledError();
     applyPreconditioner(h);
@@ -821,36 +868,20 @@ export function solve(
       beta = -pair[1] / pAp;
     }
     restart = false;
-    // p = z + beta p and q = A p in one pass
-    pAp = updateMatvecDot(h, zp, beta, pp, qp);
+    // x += alpha_old p_old (deferred), p = z + beta p and q = A p in one pass
+    pAp = updateMatvecDot(h, zp, beta, pp, qp, xp, pending);
+    pending = 0;
     if (!(pAp > 0)) break; // breakdown: the residual is zero to round-off or A is singular here
     const alpha = rz / pAp;
-    let rr = 0, rr1 = 0;
-    let k = off;
-    for (; k + 1 < off + size; k += 2) {
-      xp[k] += alpha * pp[k];
-      xp[k + 1] += alpha * pp[k + 1];
-      const v0 = rp[k] - alpha * qp[k];
-      const v1 = rp[k + 1] - alpha * qp[k + 1];
-      rp[k] = v0;
-      rp[k + 1] = v1;
-      bp[k] = v0;
-      bp[k + 1] = v1;
-      rr += v0 * v0;
-      rr1 += v1 * v1;
-    }
-    for (; k < off + size; k++) {
-      xp[k] += alpha * pp[k];
-      const v = rp[k] - alpha * qp[k];
-      rp[k] = v;
-      bp[k] = v;
-      rr += v * v;
-    }
-    rr += rr1;
+    // x += alpha p is left to the next pass over p (or done below before x is read)
+    pending = alpha;
+    const rr = updateResidual(rp, alpha, qp, bp, off, size);
     it++;
     rel = Math.sqrt(rr) / scale;
     if (rel <= tolerance) {
       // confirm on the true residual; continue (restarted) if round-off has drifted
+      axpyPadded(xp, pending, pp, off, size);
+      pending = 0;
       rel = trueResidual();
       if (rel <= tolerance) converged = true;
       else restart = true;
@@ -858,6 +889,7 @@ export function solve(
     norms[it] = rel;
     if (onIteration !== undefined && onIteration(it, rel) === false) break;
   }
+  if (pending !== 0) axpyPadded(xp, pending, pp, off, size);
   const x = xp.slice(off, off + size);
   const residualNorms = Array.from(norms.subarray(0, it + 1));
   const convergenceFactor = it > 0 && rel0 > 0 ? Math.pow(rel / rel0, 1 / it) : 0;
