@@ -131,6 +131,15 @@ export const REFERENCE_CASES: ReferenceCase[] = [
     exactVacuum: coaxCapacitance(1, 3.5),
   },
   {
+    // a film-thin gap: far below the mesh spacing, carried by the conductor-to-conductor links
+    // of the discretisation (lib/fdm/discretise.ts); they were once dropped below 1e-3 of a
+    // cell, which lost 39% of this capacitance
+    name: 'coax with a gap of 1e-5 of the inner radius, b/a = 1.00001',
+    source: 'C = 2πε/ln(b/a), exact',
+    problem: (p) => coaxProblem(1, 1.00001, 1, p),
+    exact: coaxCapacitance(1, 1.00001),
+  },
+  {
     name: 'eccentric coax, a = 1, b = 3, e = 0.8',
     source: 'C = 2πε/arccosh((a²+b²−e²)/2ab), exact (method of images)',
     problem: (p) => coaxProblem(1, 3, 1, p, 0.8),
