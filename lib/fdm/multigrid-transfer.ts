@@ -384,19 +384,17 @@ export function smoothResidualRestrictRed(lv: SweepLevel, cInv: Real, t: Transfe
       for (let kk = r0 + (jr & 1); kk < r0 + nx; kk += 2) x[kk] = b[kk] * cInv[kk];
     }
     const jb = j - 1; // black row
-    if (jb >= 0 && jb < ny) {
-      const r0 = fo + jb * nx;
-      for (let kk = r0 + 1 - (jb & 1); kk < r0 + nx; kk += 2) {
-        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
-      }
-    }
+    if (jb >= 0 && jb < ny) blackRow(lv, cInv, jb);
     const jq = j - 2; // residual row: its red nodes are final, and so are their neighbours
     if (jq >= 0 && jq < ny) {
       if ((jq & 1) === 1) {
         // odd row: the red nodes are the cell centres (odd columns), kept in r
         const r0 = fo + jq * nx;
+        let xW = x[r0];
         for (let kk = r0 + 1; kk < r0 + nx; kk += 2) {
-          r[kk] = b[kk] - c[kk] * x[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
+          const xE = x[kk + 1];
+          r[kk] = b[kk] - c[kk] * x[kk] + w[kk] * xW + w[kk + 1] * xE + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx];
+          xW = xE;
         }
       }
       // coarse row J is complete once fine rows 2J − 1, 2J, 2J + 1 (those that exist) are;
@@ -405,9 +403,15 @@ export function smoothResidualRestrictRed(lv: SweepLevel, cInv: Real, t: Transfe
         const J = jq >> 1;
         let K = J * ncx + off;
         let f = 2 * J * nx + fo;
+        // the west values of a coarse node are the previous one's east values: carried
+        let xW = x[f - 1], rNW = r[f + nx - 1], rSW = r[f - nx - 1];
         for (let I = 0; I < ncx; I++, K++, f += 2) {
-          const rv = b[f] - c[f] * x[f] + w[f] * x[f - 1] + w[f + 1] * x[f + 1] + s[f] * x[f - nx] + s[f + nx] * x[f + nx];
-          bc[K] = rv + pcSW[K] * r[f + nx + 1] + pcSE[K - 1] * r[f + nx - 1] + pcNW[K - ncx] * r[f - nx + 1] + pcNE[K - ncx - 1] * r[f - nx - 1];
+          const xE = x[f + 1], rNE = r[f + nx + 1], rSE = r[f - nx + 1];
+          const rv = b[f] - c[f] * x[f] + w[f] * xW + w[f + 1] * xE + s[f] * x[f - nx] + s[f + nx] * x[f + nx];
+          bc[K] = rv + pcSW[K] * rNE + pcSE[K - 1] * rNW + pcNW[K - ncx] * rSE + pcNE[K - ncx - 1] * rSW;
+          xW = xE;
+          rNW = rNE;
+          rSW = rSE;
         }
       }
     }
@@ -432,25 +436,45 @@ export function interpolateSmoothRed(t: Transfer, xc: Real, lv: SweepLevel, cInv
       if ((j & 1) === 0) {
         for (let f = fr; f < end; f += 2, K++) x[f] += xc[K];
       } else {
-        for (let f = fr + 1; f < end; f += 2, K++) x[f] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+        let vs = xc[K], vn = xc[K + ncx];
+        for (let f = fr + 1; f < end; f += 2, K++) {
+          const vse = xc[K + 1], vne = xc[K + ncx + 1];
+          x[f] += pcSW[K] * vs + pcSE[K] * vse + pcNW[K] * vn + pcNE[K] * vne;
+          vs = vse;
+          vn = vne;
+        }
       }
     }
     const jb = j - 1; // black row
-    if (jb >= 0 && jb < ny) {
-      const r0 = fo + jb * nx;
-      for (let kk = r0 + 1 - (jb & 1); kk < r0 + nx; kk += 2) {
-        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
-      }
-    }
+    if (jb >= 0 && jb < ny) blackRow(lv, cInv, jb);
     const jr = j - 2; // red row
-    if (jr >= 0) {
-      const r0 = fo + jr * nx;
-      for (let kk = r0 + (jr & 1); kk < r0 + nx; kk += 2) {
-        x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
-      }
-    }
+    if (jr >= 0) colourRow(lv, cInv, jr, jr & 1);
   }
 }
+
+/**
+ * Gauss–Seidel update of one colour of fine row j of a 5-point level: the nodes i = first,
+ * first + 2, … get (b + Σ couplings × neighbours) / c. The west neighbour of one node is the
+ * east neighbour of the previous one and is carried in a local (fewer loads; the same
+ * arithmetic in the same order as the plain loop). Writes x on those nodes.
+ */
+function colourRow(lv: SweepLevel, cInv: Real, j: number, first: number): void {
+  const { nx, off, w, s, x, b } = lv;
+  const r0 = off + j * nx;
+  const end = r0 + nx;
+  let xW = x[r0 + first - 1];
+  for (let kk = r0 + first; kk < end; kk += 2) {
+    const xE = x[kk + 1];
+    x[kk] = (b[kk] + w[kk] * xW + w[kk + 1] * xE + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
+    xW = xE;
+  }
+}
+
+/** The black nodes ((i + j) odd) of fine row j: see colourRow. */
+function blackRow(lv: SweepLevel, cInv: Real, j: number): void {
+  colourRow(lv, cInv, j, 1 - (j & 1));
+}
+
 
 /** xf += P xc on fine row j only (padded vectors). Writes xf on that row. */
 function interpolateRow(t: Transfer, xc: Real, xf: Real, j: number): void {
@@ -458,17 +482,25 @@ function interpolateRow(t: Transfer, xc: Real, xf: Real, j: number): void {
   const nxEven = nx & ~1;
   let K = (j >> 1) * ncx + off;
   const fr = j * nx + fineOff;
+  // coarse values shared by neighbouring fine nodes are carried in locals (fewer loads; the
+  // same arithmetic in the same order)
   if ((j & 1) === 0) {
+    let v = xc[K];
     for (let i = 0; i < nxEven; i += 2, K++) {
-      const v = xc[K];
+      const ve = xc[K + 1];
       xf[fr + i] += v;
-      xf[fr + i + 1] += pxW[K] * v + pxE[K] * xc[K + 1];
+      xf[fr + i + 1] += pxW[K] * v + pxE[K] * ve;
+      v = ve;
     }
     if (nx & 1) xf[fr + nx - 1] += xc[K];
   } else {
+    let vs = xc[K], vn = xc[K + ncx];
     for (let i = 0; i < nxEven; i += 2, K++) {
-      xf[fr + i] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
-      xf[fr + i + 1] += pcSW[K] * xc[K] + pcSE[K] * xc[K + 1] + pcNW[K] * xc[K + ncx] + pcNE[K] * xc[K + ncx + 1];
+      const vse = xc[K + 1], vne = xc[K + ncx + 1];
+      xf[fr + i] += pyS[K] * vs + pyN[K] * vn;
+      xf[fr + i + 1] += pcSW[K] * vs + pcSE[K] * vse + pcNW[K] * vn + pcNE[K] * vne;
+      vs = vse;
+      vn = vne;
     }
     if (nx & 1) xf[fr + nx - 1] += pyS[K] * xc[K] + pyN[K] * xc[K + ncx];
   }
@@ -479,17 +511,24 @@ function restrictRow(t: Transfer, rf: Real, bc: Real, J: number): void {
   const { nx, ncx, off, fineOff, pxW, pxE, pyS, pyN, pcSW, pcSE, pcNW, pcNE } = t;
   let K = J * ncx + off;
   let f = 2 * J * nx + fineOff;
+  // the west column of fine values of one coarse node is the east column of the previous one:
+  // carried in locals (fewer loads; the same arithmetic in the same order)
+  let rW = rf[f - 1], rNW = rf[f + nx - 1], rSW = rf[f - nx - 1];
   for (let I = 0; I < ncx; I++, K++, f += 2) {
+    const rE = rf[f + 1], rNE = rf[f + nx + 1], rSE = rf[f - nx + 1];
     bc[K] =
       rf[f] +
-      pxW[K] * rf[f + 1] +
-      pxE[K - 1] * rf[f - 1] +
+      pxW[K] * rE +
+      pxE[K - 1] * rW +
       pyS[K] * rf[f + nx] +
       pyN[K - ncx] * rf[f - nx] +
-      pcSW[K] * rf[f + nx + 1] +
-      pcSE[K - 1] * rf[f + nx - 1] +
-      pcNW[K - ncx] * rf[f - nx + 1] +
-      pcNE[K - ncx - 1] * rf[f - nx - 1];
+      pcSW[K] * rNE +
+      pcSE[K - 1] * rNW +
+      pcNW[K - ncx] * rSE +
+      pcNE[K - ncx - 1] * rSW;
+    rW = rE;
+    rNW = rNE;
+    rSW = rSE;
   }
 }
 
@@ -512,8 +551,16 @@ export function gaussSeidelResidualRestrict(lv: SweepLevel, cInv: Real, t: Trans
       if (sw === null || se === null) {
         for (let kk = r0; kk < end; kk++) x[kk] = (b[kk] + w[kk] * x[kk - 1] + s[kk] * x[kk - nx]) * cInv[kk];
       } else {
+        // neighbours shared with the previous node are carried in locals (fewer loads; the
+        // same arithmetic in the same order)
+        let xW = x[r0 - 1], xSW = x[r0 - nx - 1], xS = x[r0 - nx];
         for (let kk = r0; kk < end; kk++) {
-          x[kk] = (b[kk] + w[kk] * x[kk - 1] + s[kk] * x[kk - nx] + sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1]) * cInv[kk];
+          const xSE = x[kk - nx + 1];
+          const v = (b[kk] + w[kk] * xW + s[kk] * xS + sw[kk] * xSW + se[kk] * xSE) * cInv[kk];
+          x[kk] = v;
+          xW = v;
+          xSW = xS;
+          xS = xSE;
         }
       }
     }
@@ -527,8 +574,12 @@ export function gaussSeidelResidualRestrict(lv: SweepLevel, cInv: Real, t: Trans
     } else if (sw === null || se === null) {
       for (let kk = r0; kk < end; kk++) r[kk] = w[kk + 1] * x[kk + 1] + s[kk + nx] * x[kk + nx];
     } else {
+      let xNW = x[r0 + nx - 1], xN = x[r0 + nx];
       for (let kk = r0; kk < end; kk++) {
-        r[kk] = w[kk + 1] * x[kk + 1] + s[kk + nx] * x[kk + nx] + sw[kk + nx + 1] * x[kk + nx + 1] + se[kk + nx - 1] * x[kk + nx - 1];
+        const xNE = x[kk + nx + 1];
+        r[kk] = w[kk + 1] * x[kk + 1] + s[kk + nx] * xN + sw[kk + nx + 1] * xNE + se[kk + nx - 1] * xNW;
+        xNW = xN;
+        xN = xNE;
       }
     }
     if ((jq & 1) === 1 || jq === ny - 1) restrictRow(t, r, bc, jq >> 1);
@@ -554,11 +605,25 @@ export function interpolateGaussSeidelBack(t: Transfer, xc: Real, lv: SweepLevel
         x[kk] = (b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx]) * cInv[kk];
       }
     } else {
-      for (let kk = r0 + nx - 1; kk >= r0; kk--) {
+      // moving west, the east neighbour, its coupling and two of the three values of the rows
+      // below and above are the previous node's: carried in locals (fewer loads; the same
+      // arithmetic in the same order)
+      const last = r0 + nx - 1;
+      let xE = x[last + 1], wE = w[last + 1];
+      let xS = x[last - nx], xSE = x[last - nx + 1], xN = x[last + nx], xNE = x[last + nx + 1];
+      for (let kk = last; kk >= r0; kk--) {
+        const wW = w[kk], xW = x[kk - 1], xSW = x[kk - nx - 1], xNW = x[kk + nx - 1];
         const f =
-          b[kk] + w[kk] * x[kk - 1] + w[kk + 1] * x[kk + 1] + s[kk] * x[kk - nx] + s[kk + nx] * x[kk + nx] +
-          sw[kk] * x[kk - nx - 1] + se[kk] * x[kk - nx + 1] + se[kk + nx - 1] * x[kk + nx - 1] + sw[kk + nx + 1] * x[kk + nx + 1];
-        x[kk] = f * cInv[kk];
+          b[kk] + wW * xW + wE * xE + s[kk] * xS + s[kk + nx] * xN +
+          sw[kk] * xSW + se[kk] * xSE + se[kk + nx - 1] * xNW + sw[kk + nx + 1] * xNE;
+        const v = f * cInv[kk];
+        x[kk] = v;
+        xE = v;
+        wE = wW;
+        xSE = xS;
+        xS = xSW;
+        xNE = xN;
+        xN = xNW;
       }
     }
   }
