@@ -657,32 +657,45 @@ function updateMatvecDot(h: Hierarchy, z: Real, beta: number, p: Float64Array, o
   const { nx, ny, off } = h.levels[0];
   const update = (j: number) => {
     const r = off + j * nx;
-    if (alpha !== 0) for (let kk = r; kk < r + nx; kk++) x[kk] += alpha * p[kk];
-    if (beta === 0) for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk];
-    else for (let kk = r; kk < r + nx; kk++) p[kk] = z[kk] + beta * p[kk];
+    const end = r + nx;
+    if (alpha !== 0) {
+      for (let kk = r; kk < end; kk++) {
+        const pk = p[kk];
+        x[kk] += alpha * pk;
+        p[kk] = z[kk] + beta * pk;
+      }
+    } else if (beta === 0) {
+      for (let kk = r; kk < end; kk++) p[kk] = z[kk];
+    } else {
+      for (let kk = r; kk < end; kk++) p[kk] = z[kk] + beta * p[kk];
+    }
   };
   update(0);
-  // two partial sums break the dependency chain of the reduction
+  // two partial sums break the dependency chain of the reduction; the west value and the
+  // coupling to it are the previous node's centre value and east coupling, carried in locals
   let d0 = 0, d1 = 0;
   for (let j = 0; j < ny; j++) {
     if (j + 1 < ny) update(j + 1);
     const r = off + j * nx;
     const end = r + nx;
     let kk = r;
+    let pW = p[kk - 1], pC = p[kk], wW = w[kk];
     for (; kk + 1 < end; kk += 2) {
-      const p0 = p[kk], p1 = p[kk + 1];
-      const v0 = c[kk] * p0 - w[kk] * p[kk - 1] - w[kk + 1] * p1 - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
-      const v1 = c[kk + 1] * p1 - w[kk + 1] * p0 - w[kk + 2] * p[kk + 2] - s[kk + 1] * p[kk + 1 - nx] - s[kk + 1 + nx] * p[kk + 1 + nx];
+      const p1 = p[kk + 1], w1 = w[kk + 1], p2 = p[kk + 2], w2 = w[kk + 2];
+      const v0 = c[kk] * pC - wW * pW - w1 * p1 - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
+      const v1 = c[kk + 1] * p1 - w1 * pC - w2 * p2 - s[kk + 1] * p[kk + 1 - nx] - s[kk + 1 + nx] * p[kk + 1 + nx];
       out[kk] = v0;
       out[kk + 1] = v1;
-      d0 += p0 * v0;
+      d0 += pC * v0;
       d1 += p1 * v1;
+      pW = p1;
+      pC = p2;
+      wW = w2;
     }
     if (kk < end) {
-      const pk = p[kk];
-      const v = c[kk] * pk - w[kk] * p[kk - 1] - w[kk + 1] * p[kk + 1] - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
+      const v = c[kk] * pC - wW * pW - w[kk + 1] * p[kk + 1] - s[kk] * p[kk - nx] - s[kk + nx] * p[kk + nx];
       out[kk] = v;
-      d0 += pk * v;
+      d0 += pC * v;
     }
   }
   return d0 + d1;
