@@ -159,6 +159,11 @@ function printTable(results: CaseResult[], wallMs: number): void {
     const wu = u1m.workUnits as number;
     out(`${mark(wu <= 60 && (u1m.relResidual as number) <= 1e-8)} 1M uniform: relative residual ${fmt(u1m.relResidual)} in ${fmt(wu)} work units (bar: 1e-8 in ≤ 60)` +
       also(cpuOf(u1m, 'workUnits'), (v) => `${fmt(v)} work units`));
+    const first = u1m._firstRun as { setupMs: number; solveMs: number } | undefined;
+    if (first) {
+      out(`     medians of 5 runs after 2 warm-up runs (each a fresh set-up and solve; the kernels compile during the first ones): ` +
+        `the first run in this process took set-up ${fmt(first.setupMs)} ms + solve ${fmt(first.solveMs)} ms = ${fmt(first.solveMs / (u1m.matvecMs as number))} work units`);
+    }
     const half = cpuOf(u1m, 'matvecHalfMs'), wuHalf = cpuOf(u1m, 'workUnitsHalf');
     if (half !== undefined && wuHalf !== undefined) {
       out(`${mark(wuHalf <= 60)} 1M uniform, stricter: against the product on the solver's own symmetric-half storage (${fmt(half)} ms CPU, vs ${fmt(cpuOf(u1m, 'matvecMs'))} ms for applyOperator): ${fmt(wuHalf)} work units`);
