@@ -43,6 +43,12 @@ export type SolveOutcome =
 export interface SolverWorkerApi {
   solve(req: SolveRequest, onProgress: (p: WorkerProgress) => void): Promise<SolveOutcome>;
   ping(): Promise<'pong'>;
+  /**
+   * Solve a small built-in section once (workers/warm-up.ts) so that the kernels are compiled
+   * before the first real solve; later calls return at once. Never fails: resolves with the
+   * time it took in ms (0 when already done) or null when the warm-up solve failed.
+   */
+  warmUp(): Promise<number | null>;
 }
 
 /** Every distinct buffer behind the field arrays (for Comlink.transfer). */

@@ -13,6 +13,7 @@ import { solveSection } from '@/lib/engine/solve-section';
 import { SolveCancelledError } from '@/lib/fdm/types';
 import { MESH_PRESETS } from '@/lib/section/schema';
 import { fieldBuffers, type SolveOutcome, type SolveRequest, type SolverWorkerApi, type WorkerProgress } from './protocol';
+import { WARM_UP_SECTION } from './warm-up';
 
 const PROGRESS_INTERVAL_MS = 60;
 const PRESETS: readonly string[] = MESH_PRESETS;
@@ -31,9 +32,23 @@ function requestProblem(req: unknown): string | null {
   return null;
 }
 
+let warmedUp = false;
+
 const api: SolverWorkerApi = {
   async ping() {
     return 'pong';
+  },
+  async warmUp() {
+    // once per worker, and not after a real solve (which has compiled the kernels already)
+    if (warmedUp) return 0;
+    warmedUp = true;
+    const t0 = performance.now();
+    try {
+      solveSection(WARM_UP_SECTION, { keepFields: true, preset: 'quick' });
+      return performance.now() - t0;
+    } catch {
+      return null;
+    }
   },
   async solve(req: SolveRequest, onProgress: (p: WorkerProgress) => void): Promise<SolveOutcome> {
     const t0 = performance.now();
@@ -42,6 +57,7 @@ const api: SolverWorkerApi = {
       const jobId = req && typeof req === 'object' && Number.isSafeInteger(req.jobId) ? req.jobId : -1;
       return { ok: false, jobId, cancelled: false, message: `bad solve request: ${bad}` };
     }
+    warmedUp = true;
     const flag = req.cancelFlag ? new Int32Array(req.cancelFlag) : null;
     let lastSent = 0;
     let lastStage = '';

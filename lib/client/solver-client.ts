@@ -8,6 +8,9 @@ import * as Comlink from 'comlink';
 import type { Section } from '@/lib/section/schema';
 import type { SolveOutcome, SolveSettings, SolverWorkerApi, WorkerProgress } from '@/workers/protocol';
 
+/** Quiet time after the page opened before the worker solves its warm-up section. */
+const WARM_UP_DELAY_MS = 1500;
+
 export type SolveEnd = SolveOutcome | { ok: false; jobId: number; cancelled: true; message: string; superseded: true };
 
 export class SolverClient {
@@ -29,9 +32,23 @@ export class SolverClient {
     return this.remote;
   }
 
-  /** Start the worker ahead of the first solve (it loads the solver code). */
+  private warmTimer: ReturnType<typeof setTimeout> | null = null;
+  private solvedOnce = false;
+
+  /**
+   * Start the worker ahead of the first solve (it loads the solver code), and after
+   * WARM_UP_DELAY_MS without a solve let it solve a small built-in section once
+   * (workers/warm-up.ts), so the kernels are compiled while the user is still drawing. The
+   * delay keeps a Solve pressed right after the page opened from waiting behind the warm-up;
+   * a Solve pressed during the warm-up (about half a second) waits for it to end.
+   */
   warm(): void {
     void this.ensure().ping().catch(() => {});
+    if (this.warmTimer !== null) clearTimeout(this.warmTimer);
+    this.warmTimer = setTimeout(() => {
+      this.warmTimer = null;
+      if (!this.solvedOnce && this.remote) void this.remote.warmUp().catch(() => {});
+    }, WARM_UP_DELAY_MS);
   }
 
   /**
@@ -40,6 +57,7 @@ export class SolverClient {
    */
   solve(section: Section, settings: SolveSettings, onProgress: (p: WorkerProgress) => void): { jobId: number; done: Promise<SolveEnd> } {
     if (this.current) this.cancel(true);
+    this.solvedOnce = true;
     const jobId = SolverClient.nextJob++;
     const shared = this.sharedCancel;
     const sab = shared ? new SharedArrayBuffer(4) : undefined;
@@ -90,6 +108,8 @@ export class SolverClient {
   }
 
   dispose(): void {
+    if (this.warmTimer !== null) clearTimeout(this.warmTimer);
+    this.warmTimer = null;
     this.cancel();
     this.worker?.terminate();
     this.worker = null;

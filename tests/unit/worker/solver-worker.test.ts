@@ -198,3 +198,27 @@ describe('solver worker (workers/solver.worker.ts in a Node worker thread)', () 
     await expectGoodSolve(twinWires, 'quick');
   });
 });
+
+describe('solver worker warm-up (a fresh worker)', () => {
+  it('solves its built-in section once, then answers at once; a real solve afterwards is unchanged', async () => {
+    const fresh = new Worker(new URL('./node-worker-host.mjs', import.meta.url));
+    const remote = Comlink.wrap<SolverWorkerApi>(nodeEndpoint(fresh));
+    try {
+      const first = await remote.warmUp();
+      expect(first).not.toBeNull();
+      expect(first!).toBeGreaterThan(0);
+      // once per worker
+      expect(await remote.warmUp()).toBe(0);
+      const out = await remote.solve(
+        { jobId: 1, section: twinWires, settings: { preset: 'quick', tolerance: DEFAULT_TOLERANCE } },
+        Comlink.proxy(() => {}),
+      );
+      if (!out.ok) throw new Error(out.message);
+      // deterministic solver: the same numbers as a direct call (common practice, no published source)
+      expect(out.result.capacitance).toEqual(solveSection(twinWires, { preset: 'quick', tolerance: DEFAULT_TOLERANCE }).result.capacitance);
+    } finally {
+      remote[Comlink.releaseProxy]();
+      await fresh.terminate();
+    }
+  });
+});
